@@ -1,0 +1,5 @@
+"""`python -m rostertui` runs the command line."""
+
+from rostertui.cli.main import main
+
+raise SystemExit(main())

@@ -1,0 +1,50 @@
+"""`rostertui demo [DIR] [--unit clinic|depot] [--no-open]`: copy a bundled demo unit."""
+
+from __future__ import annotations
+
+import argparse
+import shutil
+from pathlib import Path
+
+from rostertui.cli.output import EXIT_OK, fail
+
+_PACKAGE = Path(__file__).resolve().parents[1]
+UNITS = ("clinic", "depot")
+
+
+def demos_dir() -> Path:
+    """Bundled demos: inside an installed wheel, or the checkout's demo/ folder."""
+    bundled = _PACKAGE / "_demo"
+    return bundled if bundled.is_dir() else _PACKAGE.parent / "demo"
+
+
+def register(verbs: argparse._SubParsersAction) -> None:
+    p = verbs.add_parser("demo", help="copy a bundled demo unit to DIR and open it")
+    p.add_argument("dir", nargs="?", default="rostertui-demo", help="default ./rostertui-demo")
+    p.add_argument("--unit", choices=UNITS, default="clinic", help="which demo (default clinic)")
+    p.add_argument("--no-open", action="store_true", help="only copy, do not open")
+    p.set_defaults(run=lambda a: do_demo(a.dir, unit=a.unit, open_it=not a.no_open))
+
+
+def do_demo(folder: str | Path, *, unit: str = "clinic", open_it: bool = True) -> int:
+    folder = Path(folder)
+    source = demos_dir() / unit
+    if not source.is_dir():
+        return fail(f"bundled demo {unit!r} not found at {source}")
+    if (folder / "unit.toml").exists():
+        print(f"{folder} already holds a workspace; opening it as it is (nothing copied)")
+    elif folder.exists() and any(folder.iterdir()):
+        return fail(f"{folder} exists and is not empty; choose another folder")
+    else:
+        shutil.copytree(source, folder, dirs_exist_ok=True)
+        print(f"copied the {unit} demo to {folder}")
+    if not open_it:
+        return EXIT_OK
+    return open_workspace(folder)
+
+
+def open_workspace(folder: Path) -> int:
+    """Until the terminal UI lands, opening a workspace audits it on the command line."""
+    from rostertui.cli.check import do_check
+
+    return do_check(folder)

@@ -1,0 +1,50 @@
+"""`rostertui`: registers the verbs; each verb lives in its own module as do_<verb>()."""
+
+from __future__ import annotations
+
+import argparse
+import sys
+from collections.abc import Sequence
+
+from rostertui import __version__
+from rostertui.cli import check, demo, new
+from rostertui.cli.output import EXIT_INPUT, fail_input
+from rostertui.core.errors import InputError
+
+DESCRIPTION = """Build, repair and audit staff rosters.
+
+Exit status: 0 done and compliant; 1 done but the roster breaks a hard rule
+(or none can keep them all); 2 the input could not be read or the command
+was wrong (message on stderr, nothing written)."""
+
+
+def build_parser() -> argparse.ArgumentParser:
+    parser = argparse.ArgumentParser(
+        prog="rostertui",
+        description=DESCRIPTION,
+        formatter_class=argparse.RawDescriptionHelpFormatter,
+    )
+    parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
+    verbs = parser.add_subparsers(dest="verb", metavar="VERB")
+    for module in (check, new, demo):
+        module.register(verbs)
+    return parser
+
+
+def main(argv: Sequence[str] | None = None) -> int:
+    parser = build_parser()
+    args_list = list(sys.argv[1:] if argv is None else argv)
+    if not args_list:
+        parser.print_help()
+        return 0
+    try:
+        args = parser.parse_args(args_list)
+    except SystemExit as exc:  # argparse exits 2 on a wrong command, 0 on --help
+        return int(exc.code or 0)
+    try:
+        return int(args.run(args))
+    except InputError as exc:
+        return fail_input(exc)
+    except KeyboardInterrupt:
+        print("interrupted; nothing written", file=sys.stderr)
+        return EXIT_INPUT

@@ -1,0 +1,45 @@
+"""unit.toml: the unit, its period and its rule set."""
+
+from __future__ import annotations
+
+from datetime import date, timedelta
+from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
+
+from pydantic import Field, field_validator
+
+from rostertui.core.models.common import Strict, Weekday
+from rostertui.core.models.rules import Rule
+
+
+class Unit(Strict):
+    name: str
+    timezone: str
+    start: date
+    days: int = Field(ge=1, le=366)
+    weekend: list[Weekday] = Field(default_factory=lambda: ["sat", "sun"])
+    holidays: list[date] = Field(default_factory=list)
+    include: list[str] = Field(default_factory=list)
+    rule: list[Rule] = Field(default_factory=list)
+
+    @field_validator("timezone")
+    @classmethod
+    def _known_zone(cls, value: str) -> str:
+        try:
+            ZoneInfo(value)
+        except (ZoneInfoNotFoundError, ValueError):
+            raise ValueError(
+                f"{value!r} is not a known IANA timezone (e.g. \"Europe/Lisbon\", \"UTC\")"
+            ) from None
+        return value
+
+    @property
+    def end(self) -> date:
+        """The last day of the period."""
+        return self.start + timedelta(days=self.days - 1)
+
+    @property
+    def dates(self) -> list[date]:
+        return [self.start + timedelta(days=i) for i in range(self.days)]
+
+    def in_period(self, day: date) -> bool:
+        return self.start <= day <= self.end

@@ -1,0 +1,42 @@
+"""Shared fixtures: paths to the repo's demos and fixtures, and to ../shared when present."""
+
+from __future__ import annotations
+
+import shutil
+from pathlib import Path
+
+import pytest
+
+REPO = Path(__file__).resolve().parents[1]
+FIXTURES = REPO / "tests" / "fixtures"
+DEMO = REPO / "demo"
+SHARED = REPO.parent / "shared"
+EXAMPLES = SHARED / "spec" / "examples"
+BENCHMARKS = SHARED / "benchmarks" / "curtois-qu"
+
+
+def example_cases() -> list[Path]:
+    return sorted(EXAMPLES.glob("case-*")) if EXAMPLES.is_dir() else []
+
+
+def need_shared(path: Path) -> None:
+    """Skip, with the reason, when the project's ../shared folder is not beside this clone."""
+    if not path.exists():
+        pytest.skip(f"{path} not found: ../shared (spec examples, benchmarks) is not beside "
+                    "this clone")
+
+
+@pytest.fixture
+def good_ws(tmp_path: Path) -> Path:
+    """A writable copy of tests/fixtures/good."""
+    dest = tmp_path / "ws"
+    shutil.copytree(FIXTURES / "good", dest)
+    return dest
+
+
+def copy_ws(src: Path, tmp_path: Path, name: str = "ws") -> Path:
+    dest = tmp_path / name
+    shutil.copytree(src, dest)
+    for p in dest.rglob("*"):
+        p.chmod(0o644 if p.is_file() else 0o755)
+    return dest
