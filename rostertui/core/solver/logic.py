@@ -1,0 +1,106 @@
+"""Literals that may be constants, and exact reified AND / OR / MAX over them.
+
+Every penalty variable built here is *equal* to its function of the roster (not
+just bounded by it), so the objective of any solution CP-SAT returns, optimal or
+not, is exactly the rules.md penalty of that roster.
+"""
+
+from __future__ import annotations
+
+from collections.abc import Iterable, Sequence
+
+from ortools.sat.python import cp_model
+
+Lit = cp_model.IntVar | bool
+Expr = cp_model.LinearExprT
+
+
+def negate(lit: Lit) -> Lit:
+    if isinstance(lit, bool):
+        return not lit
+    return lit.Not()
+
+
+def all_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
+    """A literal equal to the conjunction of `lits` (constants folded away)."""
+    rest: list[cp_model.IntVar] = []
+    for lit in lits:
+        if lit is False:
+            return False
+        if lit is not True:
+            rest.append(lit)  # type: ignore[arg-type]
+    rest = list(dict.fromkeys(rest))
+    if not rest:
+        return True
+    if len(rest) == 1:
+        return rest[0]
+    b = model.new_bool_var(name or "and")
+    model.add_bool_and(rest).only_enforce_if(b)
+    model.add_bool_or([r.Not() for r in rest]).only_enforce_if(b.Not())
+    return b
+
+
+def any_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
+    """A literal equal to the disjunction of `lits` (constants folded away)."""
+    rest: list[cp_model.IntVar] = []
+    for lit in lits:
+        if lit is True:
+            return True
+        if lit is not False:
+            rest.append(lit)  # type: ignore[arg-type]
+    rest = list(dict.fromkeys(rest))
+    if not rest:
+        return False
+    if len(rest) == 1:
+        return rest[0]
+    b = model.new_bool_var(name or "or")
+    model.add_bool_or(rest).only_enforce_if(b)
+    for r in rest:
+        model.add_implication(r, b)
+    return b
+
+
+def forbid(model: cp_model.CpModel, lits: Sequence[Lit]) -> None:
+    """Hard: not all of `lits` at once."""
+    clause: list[Lit] = []
+    for lit in lits:
+        if lit is False:
+            return
+        if lit is not True:
+            clause.append(negate(lit))
+    if not clause:
+        model.add_bool_or([])  # a constant breach: the model is infeasible
+        return
+    model.add_bool_or(clause)  # type: ignore[arg-type]
+
+
+def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.IntVar], int]:
+    """Split into variables and a constant count of True."""
+    vars_: list[cp_model.IntVar] = []
+    const = 0
+    for lit in lits:
+        if lit is True:
+            const += 1
+        elif lit is not False:
+            vars_.append(lit)  # type: ignore[arg-type]
+    return vars_, const
+
+
+def excess(model: cp_model.CpModel, expr: Expr, lo: int, hi: int, name: str) -> cp_model.IntVar:
+    """A variable equal to max(0, expr), for expr known to lie in [lo, hi]."""
+    e = model.new_int_var(min(lo, 0), max(hi, 0), f"{name}.e")
+    model.add(e == expr)
+    u = model.new_int_var(0, max(hi, 0), name)
+    model.add_max_equality(u, [e, 0])
+    return u
+
+
+def ceil_div(model: cp_model.CpModel, value: cp_model.IntVar, divisor: int, hi: int,
+             name: str) -> cp_model.IntVar | int:
+    """A variable equal to ceil(value / divisor) for a value in [0, hi]."""
+    if divisor == 1:
+        return value
+    u = model.new_int_var(0, -(-hi // divisor), name)
+    model.add(divisor * u >= value)
+    model.add(divisor * u <= value + divisor - 1)
+    return u

@@ -1,0 +1,211 @@
+"""Run the solver: time limit, workers, seed, warm start, live progress, cancel.
+
+The roster CP-SAT returns is then judged by the independent checker (the
+referee): its penalty must equal the solver's objective and it must find no
+hard violation. A mismatch raises RefereeError: a bug, never rounded away.
+"""
+
+from __future__ import annotations
+
+import os
+import threading
+import time
+from collections.abc import Callable
+from dataclasses import dataclass, field
+
+from ortools.sat.python import cp_model
+
+from rostertui.core.check import CheckResult, check_roster
+from rostertui.core.errors import RosterError
+from rostertui.core.models.common import OFF
+from rostertui.core.models.roster import Roster, SolveRecord
+from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver.model import Built, build_model
+
+
+class RefereeError(RosterError):
+    """The checker disagrees with the solver about a roster: a bug in one of them."""
+
+
+@dataclass(frozen=True)
+class SolveOptions:
+    time_limit: float = 60.0
+    workers: int = 0  # 0 = every core
+    seed: int = 0
+    warm_start: bool = True  # hint the search with the workspace's current roster
+    log: bool = False
+
+
+@dataclass(frozen=True)
+class SolveProgress:
+    elapsed: float
+    penalty: int | None  # best roster found so far (None before the first)
+    bound: int  # proven lower bound on the penalty
+
+
+@dataclass
+class SolveOutcome:
+    status: str  # optimal | feasible | infeasible | unknown
+    roster: Roster | None
+    objective: int | None
+    bound: int | None
+    seconds: float
+    seed: int
+    check: CheckResult | None = None
+    build_seconds: float = 0.0
+    first_seconds: float | None = None  # time to the first roster
+    best_seconds: float | None = None  # time to the best roster
+    history: list[SolveProgress] = field(default_factory=list)
+
+    @property
+    def gap(self) -> float | None:
+        if self.objective is None or self.bound is None:
+            return None
+        if self.objective == 0:
+            return 0.0
+        return max(0.0, (self.objective - self.bound) / abs(self.objective))
+
+
+ProgressCallback = Callable[[SolveProgress], None]
+
+
+class _Recorder(cp_model.CpSolverSolutionCallback):
+    """Records each improving roster; prints nothing; stops the search on cancel."""
+
+    def __init__(self, built: Built, started: float, on_progress: ProgressCallback | None,
+                 cancel: threading.Event | None):
+        super().__init__()
+        self.built = built
+        self.started = started
+        self.on_progress = on_progress
+        self.cancel = cancel
+        self.best: dict[tuple[int, int, str], int] | None = None
+        self.best_objective: int | None = None
+        self.first_seconds: float | None = None
+        self.best_seconds: float | None = None
+        self.history: list[SolveProgress] = []
+
+    def on_solution_callback(self) -> None:
+        elapsed = time.monotonic() - self.started
+        objective = round(self.objective_value)
+        if self.best_objective is None or objective <= self.best_objective:
+            self.best = {key: self.value(var) for key, var in self.built.cells.x.items()}
+            self.best_objective = objective
+            self.best_seconds = elapsed
+            if self.first_seconds is None:
+                self.first_seconds = elapsed
+        self.report(elapsed, round(self.best_objective_bound))
+        if self.cancel is not None and self.cancel.is_set():
+            self.stop_search()
+
+    def report(self, elapsed: float, bound: int) -> None:
+        progress = SolveProgress(elapsed, self.best_objective, bound)
+        self.history.append(progress)
+        if self.on_progress is not None:
+            self.on_progress(progress)
+
+
+def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster:
+    cells = built.cells
+    rows = {pid: [OFF] * cells.n for pid in cells.people}
+    for (p, d, code), v in values.items():
+        if v:
+            rows[cells.people[p]][d] = code
+    locks = list(cells.ws.roster.lock) if cells.ws.roster is not None else []
+    return Roster(start=cells.start, days=cells.n, rows=rows, lock=locks)
+
+
+def _hint(built: Built) -> None:
+    roster = built.cells.ws.roster
+    if roster is None:
+        return
+    cells = built.cells
+    for (p, d, code), var in cells.x.items():
+        row = roster.rows.get(cells.people[p])
+        if row is not None and d < len(row):
+            built.model.add_hint(var, row[d] == code)
+
+
+def solve(
+    ws: Workspace,
+    options: SolveOptions | None = None,
+    on_progress: ProgressCallback | None = None,
+    cancel: threading.Event | None = None,
+) -> SolveOutcome:
+    """Build and solve; the returned roster is refereed by the checker."""
+    options = options or SolveOptions()
+    t0 = time.monotonic()
+    built = build_model(ws)
+    build_seconds = time.monotonic() - t0
+    if options.warm_start:
+        _hint(built)
+    solver = cp_model.CpSolver()
+    solver.parameters.max_time_in_seconds = max(0.01, options.time_limit)
+    solver.parameters.num_workers = options.workers or os.cpu_count() or 1
+    solver.parameters.random_seed = options.seed
+    solver.parameters.log_search_progress = options.log
+    started = time.monotonic()
+    recorder = _Recorder(built, started, on_progress, cancel)
+    solver.best_bound_callback = lambda bound: recorder.report(
+        time.monotonic() - started, round(bound))
+    stop_watch = _watch_cancel(solver, cancel)
+    try:
+        code = solver.solve(built.model, recorder)
+    finally:
+        if stop_watch is not None:
+            stop_watch.set()
+    seconds = time.monotonic() - started
+    status = {
+        cp_model.OPTIMAL: "optimal",
+        cp_model.FEASIBLE: "feasible",
+        cp_model.INFEASIBLE: "infeasible",
+        cp_model.MODEL_INVALID: "unknown",
+    }.get(code, "unknown")
+    outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
+                           build_seconds=build_seconds, history=recorder.history)
+    if recorder.best is None:
+        if status in ("optimal", "feasible"):
+            status = "unknown"
+        outcome.status = status
+        return outcome
+    roster = roster_from(built, recorder.best)
+    objective = recorder.best_objective
+    bound = round(solver.best_objective_bound)
+    roster.solve = SolveRecord(status=status, objective=objective, bound=min(bound, objective),
+                               seconds=round(seconds, 3), seed=options.seed)
+    outcome.roster, outcome.objective, outcome.bound = roster, objective, min(bound, objective)
+    outcome.first_seconds, outcome.best_seconds = recorder.first_seconds, recorder.best_seconds
+    outcome.check = referee(ws, roster, objective)
+    return outcome
+
+
+def referee(ws: Workspace, roster: Roster, objective: int | None) -> CheckResult:
+    """The checker's verdict on the solver's roster; disagreement is a bug."""
+    result = check_roster(ws, roster)
+    if result.hard_violations:
+        first = next(v for v in result.violations if v.hard)
+        raise RefereeError(
+            f"the solver returned a roster with {result.hard_violations} hard violation(s), "
+            f"e.g. {first.rule}: {first.message}")
+    if objective is not None and result.penalty != objective:
+        raise RefereeError(
+            f"the solver's objective {objective} differs from the checker's penalty "
+            f"{result.penalty} for the same roster")
+    return result
+
+
+def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None
+                  ) -> threading.Event | None:
+    """Stop the search as soon as `cancel` is set, even between solutions."""
+    if cancel is None:
+        return None
+    done = threading.Event()
+
+    def watch() -> None:
+        while not done.is_set():
+            if cancel.wait(0.1):
+                solver.stop_search()
+                return
+
+    threading.Thread(target=watch, daemon=True, name="rostertui-cancel").start()
+    return done

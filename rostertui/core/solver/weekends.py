@@ -1,0 +1,88 @@
+"""Weekend rules (rules.md: max-weekends, complete-weekends).
+
+Weekends are maximal runs of weekend days and holidays inside the period.
+"""
+
+from __future__ import annotations
+
+from rostertui.core.models.common import WEEKDAYS
+from rostertui.core.models.rules import CompleteWeekends, MaxWeekends
+from rostertui.core.models.workspace import EffectiveRule
+from rostertui.core.solver.cells import Cells
+from rostertui.core.solver.logic import Lit, all_of, any_of, bool_sum, excess, forbid, negate
+from rostertui.core.solver.terms import Build
+
+
+def weekends(cells: Cells) -> list[tuple[int, int]]:
+    weekend = {WEEKDAYS.index(w) for w in cells.ws.unit.weekend}
+    holidays = set(cells.ws.unit.holidays)
+    flags = [cells.date(d).weekday() in weekend or cells.date(d) in holidays
+             for d in range(cells.n)]
+    found: list[tuple[int, int]] = []
+    d = 0
+    while d < cells.n:
+        if flags[d]:
+            e = d
+            while e + 1 < cells.n and flags[e + 1]:
+                e += 1
+            found.append((d, e))
+            d = e + 1
+        else:
+            d += 1
+    return found
+
+
+class WeekendsWorked:
+    """One literal per (person, weekend): worked on any of its days (shared by rules)."""
+
+    def __init__(self, b: Build):
+        self.b = b
+        self.spans = weekends(b.cells)
+        self._lits: dict[tuple[int, int], Lit] = {}
+
+    def worked(self, p: int, k: int) -> Lit:
+        found = self._lits.get((p, k))
+        if found is None:
+            a, z = self.spans[k]
+            lits = [self.b.cells.works(p, d) for d in range(a, z + 1)]
+            found = self._lits[p, k] = any_of(self.b.model, lits, f"wk[{p},{k}]")
+        return found
+
+    def count(self, p: int):  # noqa: ANN201 - a linear expression and its bounds
+        vars_, const = bool_sum(self.worked(p, k) for k in range(len(self.spans)))
+        return (sum(vars_) + const if vars_ else const), const, const + len(vars_)
+
+
+def add_max_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
+    rule = eff.rule
+    assert isinstance(rule, MaxWeekends)
+    for pid in eff.people:
+        expr, lo, hi = ww.count(b.cells.pindex[pid])
+        if hi <= rule.count:
+            continue
+        if rule.weight is None:
+            b.model.add(expr <= rule.count)
+        else:
+            units = excess(b.model, expr - rule.count, lo - rule.count, hi - rule.count,
+                           f"{rule.id}.{pid}")
+            b.add(rule.id, rule.kind, pid, (), rule.weight, units)
+
+
+def add_complete_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
+    rule = eff.rule
+    assert isinstance(rule, CompleteWeekends)
+    cells = b.cells
+    for pid in eff.people:
+        p = cells.pindex[pid]
+        for k, (a, z) in enumerate(ww.spans):
+            if a == z:
+                continue
+            days = [cells.works(p, d) for d in range(a, z + 1)]
+            if rule.weight is None:
+                for d in range(a, z):
+                    forbid(b.model, [days[d - a], negate(days[d - a + 1])])
+                    forbid(b.model, [negate(days[d - a]), days[d - a + 1]])
+            else:
+                partial = all_of(b.model, [ww.worked(p, k), negate(all_of(b.model, days))])
+                b.add(rule.id, rule.kind, pid, (cells.date(a), cells.date(z)), rule.weight,
+                      partial)
