@@ -7,7 +7,7 @@ import sys
 from collections.abc import Sequence
 
 from rostertui import __version__
-from rostertui.cli import check, demo, new
+from rostertui.cli import check, demo, new, solve, stats
 from rostertui.cli.output import EXIT_INPUT, fail_input
 from rostertui.core.errors import InputError
 
@@ -26,7 +26,7 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (check, new, demo):
+    for module in (check, stats, solve, new, demo):
         module.register(verbs)
     return parser
 

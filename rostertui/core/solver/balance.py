@@ -32,15 +32,13 @@ def add_balance(b: Build, eff: EffectiveRule, hours: Hours, ww: WeekendsWorked) 
             metrics.append(shift_count(b, p, frozenset([rule.metric.removeprefix("shift:")])))
     lo = min(m[1] for m in metrics)
     hi = max(m[2] for m in metrics)
-    values = []
-    for i, (expr, mlo, mhi) in enumerate(metrics):
-        v = model.new_int_var(mlo, mhi, f"{rule.id}.m{i}")
-        model.add(v == expr)
-        values.append(v)
+    # top >= every value and low <= every value: the objective pulls them together,
+    # and polishing makes them the exact max and min of the roster returned
     top = model.new_int_var(lo, hi, f"{rule.id}.max")
     low = model.new_int_var(lo, hi, f"{rule.id}.min")
-    model.add_max_equality(top, values)
-    model.add_min_equality(low, values)
+    for expr, _mlo, _mhi in metrics:
+        model.add(top >= expr)
+        model.add(low <= expr)
     spread = model.new_int_var(0, hi - lo, f"{rule.id}.spread")
     model.add(spread == top - low)
     divisor = hours.scale if rule.metric == "hours" else 1

@@ -16,7 +16,7 @@ from rostertui.core.models.rules import (
 )
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.hours import Hours, exact
-from rostertui.core.solver.logic import bool_sum, ceil_div, excess
+from rostertui.core.solver.logic import absolute, bool_sum, ceil_div, excess
 from rostertui.core.solver.terms import Build
 
 
@@ -76,10 +76,7 @@ def add_hours(b: Build, eff: EffectiveRule, hours: Hours) -> None:
         if rule.target is not None and rule.weight is not None:
             t = hours.scaled(exact(rule.target))
             top = max(abs(lo - t), abs(hi - t))
-            dev = b.model.new_int_var(lo - t, hi - t, f"{rule.id}.{pid}.dev")
-            b.model.add(dev == expr - t)
-            away = b.model.new_int_var(0, top, f"{rule.id}.{pid}.away")
-            b.model.add_abs_equality(away, dev)
+            away = absolute(b.model, expr - t, lo - t, hi - t, f"{rule.id}.{pid}.away")
             units = ceil_div(b.model, away, s, top, f"{rule.id}.{pid}.target")
             b.add(rule.id, rule.kind, pid, (), rule.weight, units)
 

@@ -1,8 +1,13 @@
-"""Literals that may be constants, and exact reified AND / OR / MAX over them.
+"""Literals that may be constants; AND / OR over them; penalty units.
 
-Every penalty variable built here is *equal* to its function of the roster (not
-just bounded by it), so the objective of any solution CP-SAT returns, optimal or
-not, is exactly the rules.md penalty of that roster.
+Two kinds of helpers. `all_of` and `any_of` give literals *equal* to their
+function of the roster, for use anywhere. The penalty helpers (`breach`,
+`excess`, `ceil_div`, `absolute`, `spread`) only bound their variable from below
+by its true value: the objective keeps it down, and a lean model searches far
+better (measured on the Curtois-Qu instances: 828 reached in 3 s instead of
+47 s). After the search, `run.polish` fixes the roster and minimises again,
+which brings every such variable down to its exact value, so the objective
+reported is exactly the rules.md penalty of the roster returned.
 """
 
 from __future__ import annotations
@@ -86,21 +91,45 @@ def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.IntVar], int]:
     return vars_, const
 
 
+def breach(model: cp_model.CpModel, lits: Sequence[Lit], name: str = "") -> Lit:
+    """Penalty literal: at least the conjunction of `lits` (1 when all hold)."""
+    vars_: list[cp_model.IntVar] = []
+    for lit in lits:
+        if lit is False:
+            return False
+        if lit is not True:
+            vars_.append(lit)  # type: ignore[arg-type]
+    vars_ = list(dict.fromkeys(vars_))
+    if not vars_:
+        return True
+    if len(vars_) == 1:
+        return vars_[0]
+    b = model.new_bool_var(name or "breach")
+    model.add_bool_or([b, *(v.Not() for v in vars_)])
+    return b
+
+
 def excess(model: cp_model.CpModel, expr: Expr, lo: int, hi: int, name: str) -> cp_model.IntVar:
-    """A variable equal to max(0, expr), for expr known to lie in [lo, hi]."""
-    e = model.new_int_var(min(lo, 0), max(hi, 0), f"{name}.e")
-    model.add(e == expr)
+    """Penalty units: at least max(0, expr), for expr known to lie in [lo, hi]."""
     u = model.new_int_var(0, max(hi, 0), name)
-    model.add_max_equality(u, [e, 0])
+    model.add(u >= expr)
+    return u
+
+
+def absolute(model: cp_model.CpModel, expr: Expr, lo: int, hi: int, name: str
+             ) -> cp_model.IntVar:
+    """Penalty units: at least |expr|, for expr known to lie in [lo, hi]."""
+    u = model.new_int_var(0, max(abs(lo), abs(hi)), name)
+    model.add(u >= expr)
+    model.add(u >= -expr)
     return u
 
 
 def ceil_div(model: cp_model.CpModel, value: cp_model.IntVar, divisor: int, hi: int,
              name: str) -> cp_model.IntVar | int:
-    """A variable equal to ceil(value / divisor) for a value in [0, hi]."""
+    """Penalty units: at least ceil(value / divisor), for a value in [0, hi]."""
     if divisor == 1:
         return value
     u = model.new_int_var(0, -(-hi // divisor), name)
     model.add(divisor * u >= value)
-    model.add(divisor * u <= value + divisor - 1)
     return u

@@ -18,7 +18,7 @@ from rostertui.core.models.rules import MinRest, WeeklyRest
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
 from rostertui.core.solver.clock import ShiftClock
-from rostertui.core.solver.logic import Lit, all_of, any_of, forbid, negate
+from rostertui.core.solver.logic import Lit, all_of, any_of, breach, forbid, negate
 from rostertui.core.solver.terms import Build
 
 MAX_SPAN_DAYS = 2  # a shift lasts at most 24 h (25 h across DST): it ends by day + 2
@@ -77,7 +77,7 @@ def add_min_rest(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRuns)
                             forbid(b.model, lits)
                         else:
                             b.add(rule.id, rule.kind, pid, (cells.date(i), cells.date(j)),
-                                  rule.weight, all_of(b.model, lits))
+                                  rule.weight, breach(b.model, lits))
 
 
 def windows(cells: Cells, days: int, align: str) -> list[int]:

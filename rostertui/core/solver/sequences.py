@@ -8,7 +8,7 @@ from __future__ import annotations
 from rostertui.core.models.common import OFF
 from rostertui.core.models.rules import ForbiddenSequence
 from rostertui.core.models.workspace import EffectiveRule
-from rostertui.core.solver.logic import Lit, all_of, any_of, forbid, negate
+from rostertui.core.solver.logic import Lit, any_of, breach, forbid, negate
 from rostertui.core.solver.terms import Build
 
 
@@ -36,4 +36,4 @@ def add_forbidden_sequence(b: Build, eff: EffectiveRule) -> None:
                 forbid(b.model, [before, follows])
             else:
                 b.add(rule.id, rule.kind, pid, dates, rule.weight,
-                      all_of(b.model, [before, follows]))
+                      breach(b.model, [before, follows]))

@@ -20,7 +20,7 @@ from rostertui.core.models.rules import (
     MinConsecutiveOff,
 )
 from rostertui.core.models.workspace import EffectiveRule
-from rostertui.core.solver.logic import Lit, all_of, forbid, negate
+from rostertui.core.solver.logic import Lit, breach, forbid, negate
 from rostertui.core.solver.terms import Build
 
 Member = Callable[[int, int], Lit]  # (person index, day index) -> literal
@@ -58,7 +58,7 @@ def add_max_stretch(b: Build, eff: EffectiveRule) -> None:
                 forbid(b.model, window)
             else:
                 dates = (cells.date(max(t - limit, 0)), cells.date(t))
-                b.add(rule.id, rule.kind, pid, dates, rule.weight, all_of(b.model, window))
+                b.add(rule.id, rule.kind, pid, dates, rule.weight, breach(b.model, window))
 
 
 def add_min_stretch(b: Build, eff: EffectiveRule) -> None:
@@ -89,4 +89,4 @@ def add_min_stretch(b: Build, eff: EffectiveRule) -> None:
                     forbid(b.model, lits)
                 else:
                     b.add(rule.id, rule.kind, pid, (cells.date(max(a, 0)), cells.date(z)),
-                          rule.weight * (rule.days - length), all_of(b.model, lits))
+                          rule.weight * (rule.days - length), breach(b.model, lits))

@@ -9,7 +9,7 @@ from rostertui.core.models.common import WEEKDAYS
 from rostertui.core.models.rules import CompleteWeekends, MaxWeekends
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
-from rostertui.core.solver.logic import Lit, all_of, any_of, bool_sum, excess, forbid, negate
+from rostertui.core.solver.logic import Lit, any_of, bool_sum, excess, forbid, negate
 from rostertui.core.solver.terms import Build
 
 
@@ -82,7 +82,12 @@ def add_complete_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> N
                 for d in range(a, z):
                     forbid(b.model, [days[d - a], negate(days[d - a + 1])])
                     forbid(b.model, [negate(days[d - a]), days[d - a + 1]])
-            else:
-                partial = all_of(b.model, [ww.worked(p, k), negate(all_of(b.model, days))])
+            else:  # worked in part: some day worked and another not
+                partial = b.model.new_bool_var(f"{rule.id}.{pid}.{k}")
+                for d1 in days:
+                    for d2 in days:
+                        if d1 is not d2 and d1 is not False and d2 is not True:
+                            b.model.add(partial >= (d1 if d1 is not True else 1)
+                                        - (d2 if d2 is not False else 0))
                 b.add(rule.id, rule.kind, pid, (cells.date(a), cells.date(z)), rule.weight,
                       partial)

@@ -1,0 +1,156 @@
+"""`rostertui solve WS [--time-limit S] [--workers N] [--seed N] [--json]`."""
+
+from __future__ import annotations
+
+import argparse
+import signal
+import sys
+import threading
+import time
+from collections.abc import Iterator
+from contextlib import contextmanager
+from pathlib import Path
+from typing import TextIO
+
+from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, warn
+from rostertui.core.io.load import load_workspace
+from rostertui.core.io.save import save
+from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver import SolveOptions, SolveOutcome, SolveProgress, solve
+
+
+def register(verbs: argparse._SubParsersAction) -> None:
+    p = verbs.add_parser(
+        "solve",
+        help="build the roster (writes WS/roster.toml)",
+        description="Build the roster with the least penalty that keeps every hard rule. "
+        "Progress goes to stderr; Ctrl-C stops early and keeps the best roster so far.",
+    )
+    p.add_argument("workspace", nargs="?", default=".", help="workspace folder (default: .)")
+    p.add_argument("--time-limit", type=float, default=60.0, metavar="S",
+                   help="seconds to search (default 60)")
+    p.add_argument("--workers", type=int, default=0, metavar="N",
+                   help="search threads (default: every core)")
+    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    p.add_argument("--json", action="store_true", help="print one JSON object")
+    p.set_defaults(run=lambda a: do_solve(
+        a.workspace, time_limit=a.time_limit, workers=a.workers, seed=a.seed, as_json=a.json))
+
+
+class ProgressLine:
+    """One live line on stderr: rewritten in place on a terminal, a line per update else."""
+
+    def __init__(self, stream: TextIO):
+        self.stream = stream
+        self.live = stream.isatty()
+        self.last_text = ""
+        self.last_time = 0.0
+        self.lock = threading.Lock()
+
+    def __call__(self, p: SolveProgress) -> None:
+        text = format_progress(p)
+        with self.lock:
+            now = time.monotonic()
+            if text == self.last_text or (not self.live and now - self.last_time < 1.0
+                                          and p.penalty is not None and self.last_text):
+                return
+            self.last_text, self.last_time = text, now
+            if self.live:
+                self.stream.write("\r\x1b[K" + text)
+            else:
+                self.stream.write(text + "\n")
+            self.stream.flush()
+
+    def close(self) -> None:
+        if self.live and self.last_text:
+            self.stream.write("\n")
+            self.stream.flush()
+
+
+def format_progress(p: SolveProgress) -> str:
+    if p.penalty is None:
+        return f"{p.elapsed:7.1f} s  searching for a first roster...  bound {p.bound}"
+    gap = 0.0 if p.penalty == 0 else max(0.0, (p.penalty - p.bound) / abs(p.penalty))
+    return f"{p.elapsed:7.1f} s  penalty {p.penalty:>8}  bound {p.bound:>8}  gap {gap:6.1%}"
+
+
+@contextmanager
+def ctrl_c_cancels(cancel: threading.Event) -> Iterator[None]:
+    """First Ctrl-C stops the search and keeps the best roster; a second one aborts."""
+    if threading.current_thread() is not threading.main_thread():
+        yield
+        return
+
+    def handler(signum: int, frame: object) -> None:
+        if cancel.is_set():
+            raise KeyboardInterrupt
+        cancel.set()
+        print("\nstopping: keeping the best roster so far (Ctrl-C again to abort)",
+              file=sys.stderr)
+
+    previous = signal.signal(signal.SIGINT, handler)
+    try:
+        yield
+    finally:
+        signal.signal(signal.SIGINT, previous)
+
+
+def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 0,
+             seed: int = 0, as_json: bool = False) -> int:
+    ws = load_workspace(workspace)
+    warn(ws.warnings)
+    cancel = threading.Event()
+    line = ProgressLine(sys.stderr)
+    options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed)
+    with ctrl_c_cancels(cancel):
+        try:
+            outcome = solve(ws, options, on_progress=line, cancel=cancel)
+        finally:
+            line.close()
+    if outcome.roster is None:
+        if as_json:
+            print_json({"status": outcome.status, "objective": None, "bound": None,
+                        "seconds": round(outcome.seconds, 3), "hard_violations": None})
+        if outcome.status == "infeasible":
+            print("No roster keeps every hard rule: the rules, cover, leave and locks "
+                  "contradict each other. Nothing was written.", file=sys.stderr)
+        else:
+            print(f"No roster found within {time_limit:g} s (not proven impossible either); "
+                  "try a longer --time-limit. Nothing was written.", file=sys.stderr)
+        return EXIT_HARD
+    assert ws.path is not None and outcome.check is not None
+    save(outcome.roster, ws.path)
+    if as_json:
+        print_json({"status": outcome.status, "objective": outcome.objective,
+                    "bound": outcome.bound, "seconds": round(outcome.seconds, 3),
+                    "hard_violations": outcome.check.hard_violations})
+    else:
+        print(summary(ws, outcome))
+    return EXIT_OK if outcome.check.compliant else EXIT_HARD
+
+
+def summary(ws: Workspace, outcome: SolveOutcome) -> str:
+    check = outcome.check
+    assert check is not None and outcome.roster is not None
+    gap = outcome.gap or 0.0
+    proven = "proven optimal" if outcome.status == "optimal" else f"gap {gap:.1%} to the bound"
+    lines = [
+        f"{ws.unit.name}: roster for {ws.unit.start} to {ws.unit.end} written to "
+        f"{(ws.path or Path('.')) / 'roster.toml'}",
+        f"  status {outcome.status}: penalty {outcome.objective}, bound {outcome.bound} "
+        f"({proven}), {outcome.seconds:.1f} s",
+        "  every hard rule kept" if check.compliant
+        else f"  {check.hard_violations} hard violations",
+    ]
+    if check.by_kind:
+        lines.append("  penalty by kind:")
+        for kind, agg in sorted(check.by_kind.items(), key=lambda kv: -kv[1]["penalty"]):
+            if agg["penalty"]:
+                lines.append(f"    {kind:<26} {agg['units']:>6} units {agg['penalty']:>8}")
+    asked = [r for r in ws.requests.request if ws.unit.in_period(r.date)]
+    denied = [v for v in check.violations if v.kind == "request"]
+    lines.append(f"  requests: {len(asked) - len(denied)} of {len(asked)} granted")
+    names = {p.id: p.name for p in ws.staff.person}
+    for v in denied:
+        lines.append(f"    not granted: {names.get(v.person or '', v.person)}: {v.message}")
+    return "\n".join(lines)

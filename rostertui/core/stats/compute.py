@@ -1,0 +1,122 @@
+"""`roster_stats`: the statistics of a roster, computed on the checker's `Grid`."""
+
+from __future__ import annotations
+
+from fractions import Fraction
+
+from rostertui.core.check.grid import Grid, exact
+from rostertui.core.check.stretches import stretches
+from rostertui.core.models.common import OFF
+from rostertui.core.models.roster import Roster
+from rostertui.core.models.rules import HoursRule
+from rostertui.core.models.workspace import Workspace
+from rostertui.core.stats.result import EVERYONE, GroupStats, PersonStats, RosterStats, Summary
+
+
+def _hours_rule(ws: Workspace, pid: str) -> HoursRule | None:
+    """The first effective `hours` rule whose scope includes the person."""
+    for eff in ws.rules:
+        if isinstance(eff.rule, HoursRule) and pid in eff.people:
+            return eff.rule
+    return None
+
+
+def _exact(value: float | None) -> Fraction | None:
+    return None if value is None else exact(value)
+
+
+def _requests(ws: Workspace, grid: Grid) -> dict[str, list[bool]]:
+    """Per person, whether each request inside the period was honoured."""
+    found: dict[str, list[bool]] = {pid: [] for pid in grid.rows}
+    for r in ws.requests.request:
+        row = grid.rows.get(r.person)
+        if row is None or not grid.in_period(r.date):
+            continue
+        has = row[grid.index(r.date)]
+        if r.want == "off":
+            found[r.person].append(has == OFF)
+        elif r.want is not None:
+            found[r.person].append(has == r.want)
+        else:
+            found[r.person].append(has != r.avoid)
+    return found
+
+
+def _working(code: str) -> bool:
+    return code != OFF
+
+
+def _person(
+    ws: Workspace, grid: Grid, pid: str, honoured: list[bool], weekend_days: frozenset[int],
+    holidays: frozenset[int], rostered: bool,
+) -> PersonStats:
+    person = ws.person_by_id[pid]
+    row = grid.rows[pid]
+    leave = sum(grid.leave[pid].values(), Fraction(0)) if rostered else Fraction(0)
+    worked = [i for i, code in enumerate(row) if code != OFF]
+    rule = _hours_rule(ws, pid)
+    longest = max((b - a + 1 for a, b, _, _ in stretches(grid, pid, _working)), default=0)
+    return PersonStats(
+        person=pid,
+        name=person.name,
+        groups=tuple(person.groups),
+        hours=grid.paid(pid) + leave,
+        paid_hours=grid.paid(pid),
+        leave_hours=leave,
+        hours_rule=rule.id if rule else None,
+        hours_min=_exact(rule.min) if rule else None,
+        hours_max=_exact(rule.max) if rule else None,
+        hours_target=_exact(rule.target) if rule else None,
+        shifts=len(worked),
+        by_shift={code: row.count(code) for code in grid.codes_order},
+        nights=sum(1 for code in row if code in grid.night_codes),
+        weekend_days=sum(1 for i in worked if i in weekend_days),
+        weekends=grid.worked_weekends(pid),
+        holidays=sum(1 for i in worked if i in holidays),
+        requests_granted=sum(honoured),
+        requests_denied=len(honoured) - sum(honoured),
+        longest_stretch=longest,
+    )
+
+
+def _group(name: str, everyone: bool, people: list[PersonStats]) -> GroupStats:
+    deviations = [d for p in people if (d := p.hours_deviation) is not None]
+    return GroupStats(
+        group=name,
+        everyone=everyone,
+        members=tuple(p.person for p in people),
+        nights=Summary.of([p.nights for p in people]),
+        weekends=Summary.of([p.weekends for p in people]),
+        hours_deviation=Summary.of(deviations),
+    )
+
+
+def roster_stats(ws: Workspace, roster: Roster | None = None) -> RosterStats:
+    """Per-person and per-group statistics of `roster` (default: `ws.roster`).
+
+    With no roster at all, every person has zero of everything: no shifts, no hours
+    (leave credit is not counted either) and no request granted or denied; the
+    hours bounds are still given, so a deviation is minus the reference.
+    """
+    roster = roster if roster is not None else ws.roster
+    rostered = roster is not None
+    grid = Grid(ws, roster)
+    weekend_days = frozenset(i for a, b in grid.weekends for i in range(a, b + 1))
+    holidays = frozenset(grid.index(d) for d in set(ws.unit.holidays) if grid.in_period(d))
+    honoured = _requests(ws, grid) if rostered else {pid: [] for pid in grid.rows}
+    people = [
+        _person(ws, grid, pid, honoured[pid], weekend_days, holidays, rostered)
+        for pid in ws.person_ids
+    ]
+    codes: list[str] = []
+    for p in people:
+        codes += [g for g in p.groups if g not in codes]
+    groups = [_group(code, False, [p for p in people if code in p.groups]) for code in codes]
+    groups.append(_group(EVERYONE, True, people))
+    return RosterStats(
+        people=people,
+        groups=groups,
+        has_roster=rostered,
+        weekends_in_period=len(grid.weekends),
+        holidays_in_period=len(holidays),
+    )
