@@ -44,15 +44,18 @@ class ProgressLine:
         self.stream = stream
         self.live = stream.isatty()
         self.last_text = ""
+        self.latest = ""
         self.last_time = 0.0
         self.lock = threading.Lock()
 
     def __call__(self, p: SolveProgress) -> None:
         text = format_progress(p)
         with self.lock:
+            self.latest = text
             now = time.monotonic()
+            # off a terminal (a log file), at most one line a second; the last at close()
             if text == self.last_text or (not self.live and now - self.last_time < 1.0
-                                          and p.penalty is not None and self.last_text):
+                                          and self.last_text):
                 return
             self.last_text, self.last_time = text, now
             if self.live:
@@ -62,8 +65,11 @@ class ProgressLine:
             self.stream.flush()
 
     def close(self) -> None:
-        if self.live and self.last_text:
-            self.stream.write("\n")
+        with self.lock:
+            if not self.live and self.latest and self.latest != self.last_text:
+                self.stream.write(self.latest + "\n")
+            elif self.live and self.last_text:
+                self.stream.write("\n")
             self.stream.flush()
 
 

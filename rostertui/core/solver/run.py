@@ -116,14 +116,41 @@ def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster
 
 
 def _hint(built: Built) -> None:
+    """Warm start from the workspace's current roster.
+
+    The roster's cells alone leave CP-SAT to complete every auxiliary variable, which
+    it often fails to do in time; so the roster is first fixed and solved (a matter
+    of propagation), and the complete assignment becomes the hint. A roster that
+    breaks a hard rule cannot be completed: its cells are hinted as they are.
+    """
     roster = built.cells.ws.roster
     if roster is None:
         return
     cells = built.cells
-    for (p, d, code), var in cells.x.items():
+    values: dict[tuple[int, int, str], int] = {}
+    for key in cells.x:
+        p, d, code = key
         row = roster.rows.get(cells.people[p])
-        if row is not None and d < len(row):
-            built.model.add_hint(var, row[d] == code)
+        values[key] = int(row is not None and d < len(row) and row[d] == code)
+    fixed = _fixed(built, values)
+    solver = cp_model.CpSolver()
+    solver.parameters.num_workers = 1
+    solver.parameters.max_time_in_seconds = 10
+    if solver.solve(fixed) in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+        for i in range(len(built.model.proto.variables)):
+            var = built.model.get_int_var_from_proto_index(i)
+            built.model.add_hint(var, solver.value(fixed.get_int_var_from_proto_index(i)))
+    else:
+        for key, var in cells.x.items():
+            built.model.add_hint(var, values[key])
+
+
+def _fixed(built: Built, values: dict[tuple[int, int, str], int]) -> cp_model.CpModel:
+    fixed = built.model.clone()
+    fixed.clear_hints()
+    for key, var in built.cells.x.items():
+        fixed.add(fixed.get_bool_var_from_proto_index(var.index) == values[key])
+    return fixed
 
 
 def solve(
@@ -185,10 +212,7 @@ def polish(built: Built, values: dict[tuple[int, int, str], int]) -> int:
     Penalty variables are only bounded from below during the search (logic.py);
     with the roster fixed, the minimum brings each down to its exact value.
     """
-    fixed = built.model.clone()
-    for key, var in built.cells.x.items():
-        fixed.add(fixed.get_bool_var_from_proto_index(var.index) == values[key])
-    fixed.clear_hints()
+    fixed = _fixed(built, values)
     solver = cp_model.CpSolver()
     solver.parameters.num_workers = 1
     solver.parameters.max_time_in_seconds = 60
