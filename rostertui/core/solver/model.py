@@ -56,7 +56,7 @@ def build_model(ws: Workspace) -> Built:
         if isinstance(rule, R.MinRest):
             add_min_rest(b, eff, clock, runs)
         elif isinstance(rule, R.WeeklyRest):
-            add_weekly_rest(b, eff, clock, runs)
+            add_weekly_rest(b, eff, clock)
         elif isinstance(rule, R.MaxConsecutiveDays | R.MaxConsecutiveShift):
             add_max_stretch(b, eff)
         elif isinstance(rule, R.MinConsecutiveDays | R.MinConsecutiveOff):

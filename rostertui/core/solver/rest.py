@@ -5,20 +5,21 @@ below the limit is a breach; such pairs are listed from the real clock times of
 each date (DST-aware) and forbidden, or charged one unit each.
 
 weekly-rest: a window passes when some uninterrupted off-duty interval inside it
-lasts `hours`. Every such interval runs from the end of a shift on day i (or from
-the window start, when nothing is worked from two days before it) to the start of
-a shift on day j (or the window end), with every day between off. One literal per
-(i, j) is true exactly when that interval exists and is long enough; the window
-passes when one of them is true.
+lasts `hours`. Such an interval ends where a shift starts (or at the window end)
+and begins at the latest end of every earlier shift (or the window start): one
+literal per possible end, true only when every earlier shift ended long enough
+before it; the window passes when one of them is true.
 """
 
 from __future__ import annotations
+
+from ortools.sat.python import cp_model
 
 from rostertui.core.models.rules import MinRest, WeeklyRest
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
 from rostertui.core.solver.clock import ShiftClock
-from rostertui.core.solver.logic import Lit, all_of, any_of, breach, forbid, negate
+from rostertui.core.solver.logic import Lit, all_of, breach, forbid, negate
 from rostertui.core.solver.terms import Build
 
 MAX_SPAN_DAYS = 2  # a shift lasts at most 24 h (25 h across DST): it ends by day + 2
@@ -91,7 +92,7 @@ def windows(cells: Cells, days: int, align: str) -> list[int]:
     return [f for f in firsts if f + days <= cells.n]
 
 
-def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRuns) -> None:
+def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock) -> None:
     rule = eff.rule
     assert isinstance(rule, WeeklyRest)
     need = round(rule.hours * 60)
@@ -102,73 +103,55 @@ def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRu
         dates = (cells.date(f), cells.date(last))
         for pid in eff.people:
             p = cells.pindex[pid]
-            options = _rest_options(b, p, f, last, lo, hi, need, clock, runs)
+            ends = _rest_ends(b, p, f, last, lo, hi, need, clock)
             if rule.weight is None:
-                if options is not True:
-                    b.model.add_bool_or([o for o in options if o is not False] or [False])
-            else:
-                ok = True if options is True else any_of(b.model, options)
-                b.add(rule.id, rule.kind, pid, dates, rule.weight, negate(ok))
+                if ends is not True:
+                    b.model.add_bool_or(ends)  # empty: the window can never pass
+            elif ends is not True:
+                short = b.model.new_bool_var(f"{rule.id}.{pid}.{f}")
+                b.model.add_bool_or([short, *ends])
+                b.add(rule.id, rule.kind, pid, dates, rule.weight, short)
 
 
-def _rest_options(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
-                  clock: ShiftClock, runs: OffRuns) -> list[Lit] | bool:
-    """Literals, one per way the window [lo, hi) can hold a long enough rest."""
-    cells = b.cells
-    start_day = f - MAX_SPAN_DAYS
-    # (day, end instant or None for "nothing worked since start_day", literal)
-    preds: list[tuple[int, int | None, Lit]] = [(start_day - 1, None, True)]
-    for i in range(start_day, last + 1):
-        for code, lit in _codes_on(cells, p, i):
-            end = clock.span(i, code)[1]
-            # the shift must be the latest to end so far: a longer one the day or two
-            # before would still be running when this one ends
-            hidden = [
-                lit2 for k in (i - 1, i - 2) for code2, lit2 in _codes_on(cells, p, k)
-                if clock.span(k, code2)[1] > end
-            ]
-            preds.append((i, end, all_of(b.model, [lit, *(negate(h) for h in hidden)])))
-    options: list[Lit] = []
-    for i, end, guard in preds:
-        if guard is False:
-            continue
-        free_from = lo if end is None else max(end, lo)
-        if hi - free_from < need:
-            continue
-        for j in range(max(i + 1, f), last + 2):  # j = last + 1: rest until the window end
-            between = _between(b, p, i, end, j, clock, runs)
-            if between is False:
-                break
-            if j == last + 1:
-                options.append(all_of(b.model, [guard, between]))
-                continue
-            good = [lit for code, lit in cells.cell(p, j)
-                    if min(clock.span(j, code)[0], hi) - free_from >= need]
-            if good:
-                options.append(all_of(b.model, [guard, between, any_of(b.model, good)]))
-    if any(o is True for o in options):
-        return True
-    return options
+def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
+               clock: ShiftClock) -> list[cp_model.IntVar] | bool:
+    """One literal per day j of the window (and one for the window end): true only if
+    the off-duty interval that ends where day j's shift starts (or at the window end)
+    lasts `need` minutes inside the window. That interval starts at the latest end of
+    every earlier shift (or at the window start), so each earlier shift ending too
+    late is excluded; no shift starts in between, since j's is the next one.
 
-
-def _between(b: Build, p: int, i: int, end: int | None, j: int, clock: ShiftClock,
-             runs: OffRuns) -> Lit:
-    """Nothing interrupts the rest from day i's shift (ending at `end`) to day j.
-
-    Days i+1 and i+2 may hold a shift that ends before `end` (one lying inside a
-    longer shift); every other day between must be off.
+    True when the window passes whatever is worked (e.g. all history).
     """
-    cells = b.cells
-    parts: list[Lit] = []
-    for k in range(i + 1, min(i + MAX_SPAN_DAYS, j - 1) + 1):
-        if end is None:
-            parts.append(negate(cells.works(p, k)))
-            continue
-        breaking = frozenset(code for code, _ in _codes_on(cells, p, k)
-                             if clock.span(k, code)[1] > end)
-        if k < 0:
-            parts.append(not breaking)
+    cells, model = b.cells, b.model
+    ends: list[cp_model.IntVar] = []
+    for j in range(f, last + 2):
+        if j <= last:
+            starts = [(lit, min(clock.span(j, code)[0], hi)) for code, lit in cells.cell(p, j)]
+            starts = [(lit, at) for lit, at in starts if at - lo >= need]
+            if not starts:
+                continue
         else:
-            parts.append(negate(cells.on(p, k, breaking)) if breaking else True)
-    parts.append(runs.off(p, i + MAX_SPAN_DAYS + 1, j - 1))
-    return all_of(b.model, parts)
+            starts = [(True, hi)]
+            if hi - lo < need:
+                continue
+        clauses: list[list[Lit]] = []  # each: not all of these together with y
+        for k in range(f - MAX_SPAN_DAYS - 1, j):
+            for code, lit_c in _codes_on(cells, p, k):
+                finish = max(clock.span(k, code)[1], lo)
+                bad = [lit_b for lit_b, at in starts if at - finish < need]
+                if len(bad) == len(starts):
+                    clauses.append([lit_c])
+                else:
+                    clauses += [[lit_c, lit_b] for lit_b in bad]
+        if any(all(x is True for x in clause) for clause in clauses):
+            continue  # a history shift already rules this interval out
+        if j > last and not clauses:
+            return True
+        y = model.new_bool_var(f"rest[{p},{f},{j}]")
+        if j <= last:
+            model.add_bool_or([lit for lit, _ in starts]).only_enforce_if(y)  # type: ignore[misc]
+        for clause in clauses:
+            forbid(model, [y, *clause])
+        ends.append(y)
+    return ends
