@@ -44,7 +44,6 @@ def do_demo(folder: str | Path, *, unit: str = "clinic", open_it: bool = True) -
 
 
 def open_workspace(folder: Path) -> int:
-    """Until the terminal UI lands, opening a workspace audits it on the command line."""
-    from rostertui.cli.check import do_check
+    from rostertui.cli.open import do_open
 
-    return do_check(folder)
+    return do_open(folder)

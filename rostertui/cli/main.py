@@ -5,9 +5,11 @@ from __future__ import annotations
 import argparse
 import sys
 from collections.abc import Sequence
+from pathlib import Path
 
 from rostertui import __version__
 from rostertui.cli import check, demo, new, solve, stats
+from rostertui.cli import open as open_verb
 from rostertui.cli.output import EXIT_INPUT, fail_input
 from rostertui.core.errors import InputError
 
@@ -26,17 +28,29 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (check, stats, solve, new, demo):
+    for module in (open_verb, check, stats, solve, new, demo):
         module.register(verbs)
     return parser
+
+
+def _verbs(parser: argparse.ArgumentParser) -> set[str]:
+    for action in parser._actions:
+        if isinstance(action, argparse._SubParsersAction):
+            return set(action.choices)
+    return set()
 
 
 def main(argv: Sequence[str] | None = None) -> int:
     parser = build_parser()
     args_list = list(sys.argv[1:] if argv is None else argv)
     if not args_list:
-        parser.print_help()
-        return 0
+        if Path("unit.toml").is_file():  # `rostertui` inside a workspace opens it
+            args_list = ["open", "."]
+        else:
+            parser.print_help()
+            return 0
+    elif args_list[0] not in _verbs(parser) and not args_list[0].startswith("-"):
+        args_list.insert(0, "open")  # `rostertui WS` is `rostertui open WS`
     try:
         args = parser.parse_args(args_list)
     except SystemExit as exc:  # argparse exits 2 on a wrong command, 0 on --help

@@ -306,10 +306,6 @@ def test_csv_with_three_bad_rows_reports_all_three(clinic: Path, tmp_path: Path,
 # --- a shift coded "off" ----------------------------------------------------------------
 
 
-@pytest.mark.xfail(strict=True, reason=(
-    "loader bug: a shift code spelled 'off' (any case) is accepted, but the CSV reader "
-    "reads 'off' as a day off and `want = \"off\"` always means a day off, so the same "
-    "roster audits differently as TOML (compliant) and as CSV (cover breached)"))
 @pytest.mark.parametrize("code", ["off", "OFF", "Off"])
 def test_a_shift_coded_off_is_an_input_error(code: str, tmp_path: Path, capsys) -> None:
     """workspace-format.md reserves "-" for off; README: in a CSV "-", "off" or an empty

@@ -34,8 +34,14 @@ def test_python_dash_m_runs_the_same_cli() -> None:
 
 
 def test_a_wrong_command_exits_2(capsys: pytest.CaptureFixture[str]) -> None:
-    assert main(["frobnicate"]) == 2
-    assert "invalid choice" in capsys.readouterr().err
+    assert main(["check", "--frobnicate"]) == 2
+    assert "unrecognized arguments: --frobnicate" in capsys.readouterr().err
+
+
+def test_a_bare_folder_means_open_it(tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    """`rostertui WS` is `rostertui open WS` (cli.md); a folder that is no workspace: exit 2."""
+    assert main([str(tmp_path / "frobnicate")]) == 2
+    assert "no such workspace folder" in capsys.readouterr().err
 
 
 def test_new_writes_a_valid_empty_workspace(tmp_path: Path,

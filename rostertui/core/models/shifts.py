@@ -5,7 +5,7 @@ from __future__ import annotations
 from datetime import date
 from typing import Annotated
 
-from pydantic import Field, model_validator
+from pydantic import Field, field_validator, model_validator
 
 from rostertui.core.models.common import ClockTime, Identifier, Strict, Weekday, clock_minutes
 
@@ -25,6 +25,15 @@ class Shift(Strict):
     paid_hours: float | None = Field(default=None, ge=0, le=24)
     night: bool | None = None
     requires: list[Identifier] = Field(default_factory=list)
+
+    @field_validator("code")
+    @classmethod
+    def _not_off(cls, value: str) -> str:
+        if value.lower() == "off":
+            raise ValueError(
+                f"{value!r} is reserved: a request's want = \"off\" and a CSV roster's "
+                "\"off\" mean a day off; choose another code")
+        return value
 
     @property
     def minutes(self) -> int:

@@ -127,7 +127,8 @@ def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
     ends: list[cp_model.IntVar] = []
     for j in range(f, last + 2):
         if j <= last:
-            starts = [(lit, min(clock.span(j, code)[0], hi)) for code, lit in cells.cell(p, j)]
+            starts = [(lit, min(clock.span(j, code)[0], hi))
+                      for code, lit in _codes_on(cells, p, j)]
             starts = [(lit, at) for lit, at in starts if at - lo >= need]
             if not starts:
                 continue
@@ -150,7 +151,9 @@ def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
             return True
         y = model.new_bool_var(f"rest[{p},{f},{j}]")
         if j <= last:
-            model.add_bool_or([lit for lit, _ in starts]).only_enforce_if(y)  # type: ignore[misc]
+            needed = [lit for lit, _ in starts]
+            if not any(lit is True for lit in needed):
+                model.add_bool_or(needed).only_enforce_if(y)  # type: ignore[arg-type]
         for clause in clauses:
             forbid(model, [y, *clause])
         ends.append(y)

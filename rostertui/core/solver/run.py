@@ -20,6 +20,7 @@ from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import Built, build_model
 
 
@@ -33,6 +34,8 @@ class SolveOptions:
     workers: int = 0  # 0 = every core
     seed: int = 0
     warm_start: bool = True  # hint the search with the workspace's current roster
+    lp_bound: bool = True  # a bound from the LP relaxation (GLOP) beside the search
+    lp_share: float = 0.5  # at most this share of the time limit for the LP
     log: bool = False
 
 
@@ -84,6 +87,9 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.first_seconds: float | None = None
         self.best_seconds: float | None = None
         self.history: list[SolveProgress] = []
+        self.lp_bound: int | None = None
+        self.cp_bound = 0
+        self.lock = threading.Lock()
 
     def on_solution_callback(self) -> None:
         elapsed = time.monotonic() - self.started
@@ -97,10 +103,16 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.report(elapsed, round(self.best_objective_bound))
         if self.cancel is not None and self.cancel.is_set():
             self.stop_search()
+        if self.lp_bound is not None and objective <= self.lp_bound:
+            self.stop_search()  # proven optimal by the LP bound
 
-    def report(self, elapsed: float, bound: int) -> None:
-        progress = SolveProgress(elapsed, self.best_objective, bound)
-        self.history.append(progress)
+    def report(self, elapsed: float, bound: int | None = None) -> None:
+        with self.lock:
+            if bound is not None:
+                self.cp_bound = max(self.cp_bound, bound)
+            best = max(self.cp_bound, self.lp_bound or 0)
+            progress = SolveProgress(elapsed, self.best_objective, best)
+            self.history.append(progress)
         if self.on_progress is not None:
             self.on_progress(progress)
 
@@ -171,11 +183,21 @@ def solve(
     solver.parameters.num_workers = options.workers or os.cpu_count() or 1
     solver.parameters.random_seed = options.seed
     solver.parameters.log_search_progress = options.log
+    # a fuller LP in the search: measured on Curtois-Qu 5, 6, 7, 10 at 30 s, 2 workers,
+    # it found 1-21 % better rosters; neutral on the demo and generated units
+    solver.parameters.linearization_level = 2
+    relaxation = Relaxation(built.model) if options.lp_bound else None
     started = time.monotonic()
     recorder = _Recorder(built, started, on_progress, cancel)
     solver.best_bound_callback = lambda bound: recorder.report(
         time.monotonic() - started, round(bound))
     stop_watch = _watch_cancel(solver, cancel)
+    lp_thread = None
+    if relaxation is not None:
+        lp_thread = threading.Thread(
+            target=_lp_worker, args=(relaxation, options, recorder, solver, started),
+            daemon=True, name="rostertui-lp")
+        lp_thread.start()
     try:
         code = solver.solve(built.model, recorder)
     finally:
@@ -197,13 +219,31 @@ def solve(
         return outcome
     roster = roster_from(built, recorder.best)
     objective = polish(built, recorder.best)
-    bound = round(solver.best_objective_bound)
+    bound = max(round(solver.best_objective_bound), recorder.lp_bound or 0)
+    if recorder.lp_bound is not None and objective < recorder.lp_bound:
+        raise RefereeError(f"the LP bound {recorder.lp_bound} lies above the penalty "
+                           f"{objective} of a roster: the relaxation is wrong")
+    if objective <= bound:
+        status = outcome.status = "optimal"
     roster.solve = SolveRecord(status=status, objective=objective, bound=min(bound, objective),
                                seconds=round(seconds, 3), seed=options.seed)
     outcome.roster, outcome.objective, outcome.bound = roster, objective, min(bound, objective)
     outcome.first_seconds, outcome.best_seconds = recorder.first_seconds, recorder.best_seconds
     outcome.check = referee(ws, roster, objective)
     return outcome
+
+
+def _lp_worker(relaxation: Relaxation, options: SolveOptions, recorder: _Recorder,
+               solver: cp_model.CpSolver, started: float) -> None:
+    """Solve the LP beside the search; share its bound; stop when it proves optimality."""
+    value = relaxation.solve(options.time_limit * options.lp_share)
+    if value is None:
+        return
+    recorder.lp_bound = value
+    recorder.report(time.monotonic() - started)
+    best = recorder.best_objective
+    if best is not None and best <= value:
+        solver.stop_search()
 
 
 def polish(built: Built, values: dict[tuple[int, int, str], int]) -> int:

@@ -1,0 +1,1 @@
+"""The terminal UI (Textual). The core never imports it; it only calls the core."""

@@ -1,0 +1,66 @@
+"""Changing workspace files from the UI: try the change on a scratch copy with the
+loader (so every problem is reported in the loader's own words, naming file, key and
+line), and only then write the files atomically. Pure: no textual.
+
+Removing a person also removes their row and locks from roster.toml on disk (the
+saved roster, not the unsaved hand edits), since the loader rejects a roster row of
+someone unknown. Hand edits not yet saved carry over to the new session.
+"""
+
+from __future__ import annotations
+
+import shutil
+import tempfile
+import warnings
+from pathlib import Path
+
+from pydantic import BaseModel
+
+from rostertui.core.io.atomic import write_atomic
+from rostertui.core.io.load import load_workspace
+from rostertui.core.io.save import save
+from rostertui.core.models.staff import Staff
+from rostertui.tui.state import Session, keep_people
+
+
+def workspace_files(folder: Path, include: list[str]) -> list[tuple[Path, str]]:
+    """The TOML files a workspace reads, with their path relative to the workspace: its
+    top-level files and the local presets it includes."""
+    found = [(p, p.name) for p in sorted(folder.glob("*.toml"))]
+    found += [(folder / name, name) for name in include if name.endswith(".toml")]
+    return [(p, rel) for p, rel in found if p.is_file()]
+
+
+def apply(session: Session, changed: list[BaseModel],
+          texts: dict[str, str] | None = None) -> Session:
+    """Validate `changed` file models (and `texts`: whole files by name, e.g. unit.toml)
+    with the loader, write them, and return the new session. Raises InputError (nothing
+    written) when the loader finds a problem."""
+    texts = texts or {}
+    folder = session.ws.path
+    assert folder is not None, "a loaded workspace always has a path"
+    staff = next((m for m in changed if isinstance(m, Staff)), session.ws.staff)
+    ids = [p.id for p in staff.person]
+    saved = keep_people(session.saved, ids) if session.had_file else None
+    with tempfile.TemporaryDirectory(prefix="rostertui-edit-") as tmp:
+        trial = Path(tmp) / "scratch" / "workspace"  # room for includes like ../x.toml
+        for path, rel in workspace_files(folder, session.ws.unit.include):
+            target = (trial / rel).resolve()
+            if target.is_relative_to(Path(tmp).resolve()):
+                target.parent.mkdir(parents=True, exist_ok=True)
+                shutil.copy2(path, target)
+        with warnings.catch_warnings():  # unvalidated on purpose: the loader judges it
+            warnings.simplefilter("ignore", UserWarning)
+            for model in [*changed, *([saved] if saved is not None else [])]:
+                save(model, trial)
+        for name, text in texts.items():
+            write_atomic(trial / name, text)
+        load_workspace(trial)  # raises InputError with every problem; nothing written
+    for model in changed:
+        save(model, folder)
+    for name, text in texts.items():
+        write_atomic(folder / name, text)
+    if saved is not None and saved != session.saved:
+        save(saved, folder)
+    ws = load_workspace(folder)
+    return Session(ws, roster=keep_people(session.roster, ids))

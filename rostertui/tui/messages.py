@@ -1,0 +1,82 @@
+"""Messages that travel upward between screens and the app, carrying plain data."""
+
+from __future__ import annotations
+
+import threading
+from collections.abc import Callable
+from typing import TYPE_CHECKING
+
+from textual.message import Message
+
+if TYPE_CHECKING:  # the solver (OR-Tools) is imported when the first solve starts
+    from rostertui.core.solver import SolveOutcome, SolveProgress
+    from rostertui.tui.state import Session
+
+
+class GotoCell(Message):
+    """Show this person's cell on this day in the roster grid (from the violations list)."""
+
+    def __init__(self, person: str | None, day: int | None, cover: tuple[str, str | None]
+                 | None = None):
+        super().__init__()
+        self.person, self.day, self.cover = person, day, cover
+
+
+class WorkspaceEdited(Message):
+    """An editor wrote a workspace file; `session` is the reloaded workspace's session."""
+
+    def __init__(self, session: Session, note: str):
+        super().__init__()
+        self.session, self.note = session, note
+
+
+class SolveProgressed(Message):
+    """The solver found a better roster or a better bound. A newer one replaces an
+    older one still waiting in the queue, so a flood of solutions never floods the UI."""
+
+    def __init__(self, progress: SolveProgress):
+        super().__init__()
+        self.progress = progress
+
+    def can_replace(self, message: Message) -> bool:
+        return isinstance(message, SolveProgressed)
+
+
+class RosterSolved(Message):
+    """A solve ended with a roster: the app makes it the current (unsaved) roster."""
+
+    def __init__(self, outcome: SolveOutcome):
+        super().__init__()
+        self.outcome = outcome
+
+
+class ProgressRelay:
+    """The solver's progress callback (called from solver threads).
+
+    Keeps only the latest progress and posts a message only when none is waiting,
+    so at most one progress message is ever in flight: the handler calls `take()`
+    for the latest progress, which lets the next one be posted.
+    """
+
+    def __init__(self, post: Callable[[Message], object]):
+        self._post = post
+        self._lock = threading.Lock()
+        self._latest: SolveProgress | None = None
+        self._waiting = False
+        self.received = 0
+        self.posted = 0
+
+    def __call__(self, progress: SolveProgress) -> None:
+        with self._lock:
+            self.received += 1
+            self._latest = progress
+            if self._waiting:
+                return
+            self._waiting = True
+            self.posted += 1
+        self._post(SolveProgressed(progress))
+
+    def take(self) -> SolveProgress | None:
+        with self._lock:
+            self._waiting = False
+            return self._latest

@@ -1,0 +1,1 @@
+"""The screens of the terminal UI, each with its .tcss beside it."""

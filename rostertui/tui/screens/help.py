@@ -1,0 +1,118 @@
+"""Help: every key binding (read from the classes, so the list never drifts) and a legend."""
+
+from __future__ import annotations
+
+from rich.table import Table
+from rich.text import Text
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, VerticalScroll
+from textual.screen import ModalScreen
+from textual.widgets import Static
+
+from rostertui.tui.widgets.palette import shift_colours
+
+KEY_NAMES = {"minus": "-", "question_mark": "?", "space": "space", "pageup": "PgUp",
+             "pagedown": "PgDn", "escape": "Esc", "enter": "Enter", "delete": "Del",
+             "left_square_bracket": "[", "right_square_bracket": "]"}
+
+
+def key_name(key: str) -> str:
+    if key in KEY_NAMES:
+        return KEY_NAMES[key]
+    return key.upper() if key[:1] == "f" and key[1:].isdigit() else key
+
+
+def keys_text(binding: Binding) -> str:
+    return " / ".join(key_name(k.strip()) for k in binding.key.split(","))
+
+
+def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]]]]) -> Table:
+    table = Table(show_header=False, box=None, padding=(0, 2, 0, 0), expand=False)
+    table.add_column(style="bold #f4b942", no_wrap=True)
+    table.add_column()
+    for title, bindings, extra in sections:
+        table.add_row(Text(title, style="bold underline #6a94e0"), "")
+        for key, what in extra:
+            table.add_row(key, what)
+        for b in bindings:
+            if isinstance(b, Binding) and b.description:
+                table.add_row(keys_text(b), b.description)
+        table.add_row("", "")
+    return table
+
+
+class HelpScreen(ModalScreen[None]):
+    CSS_PATH = "help.tcss"
+
+    BINDINGS = [Binding("escape,f1,q,question_mark", "dismiss", "Close help")]
+
+    def compose(self) -> ComposeResult:
+        from rostertui.tui.app import RosterApp
+        from rostertui.tui.screens.dialogs import ConfirmQuit
+        from rostertui.tui.screens.editors import EditorsScreen
+        from rostertui.tui.screens.fairness import FairnessScreen
+        from rostertui.tui.screens.solve import SolveScreen
+        from rostertui.tui.screens.violations import ViolationsScreen
+        from rostertui.tui.widgets.grid import RosterGrid
+        from rostertui.tui.widgets.list_editor import ListEditor
+        from rostertui.tui.widgets.rules_editor import RulesEditor
+
+        session = self.app.session  # type: ignore[attr-defined]
+        codes = ", ".join(session.codes)
+        sections = [
+            ("Everywhere", RosterApp.BINDINGS, [("ctrl+p", "command palette")]),
+            ("Roster grid", RosterGrid.BINDINGS, [
+                ("mouse", "a click moves the cursor to the cell"),
+                ("a shift code", f"type it into the cell ({codes}); a code that is not "
+                                 "the start of another is set at once, else press Enter"),
+                ("Esc", "drop a half-typed code"),
+            ]),
+            ("Violations (F3)", ViolationsScreen.BINDINGS,
+             [("Tab", "move between the filters and the list")]),
+            ("Fairness (F4)", FairnessScreen.BINDINGS, []),
+            ("Solve (F5)", SolveScreen.BINDINGS, []),
+            ("Editors (F6): people, leave, requests, shifts, cover", EditorsScreen.BINDINGS
+             + ListEditor.BINDINGS, [("Enter", "on a row: into the form; in the form: save"),
+                                     ("Tab", "from field to field")]),
+            ("Rules (F6, last tab)", RulesEditor.BINDINGS,
+             [("Enter", "on a rule: its TOML into the text box")]),
+            ("Quit with unsaved changes", ConfirmQuit.BINDINGS, []),
+        ]
+        with VerticalScroll(id="help-body"):
+            yield Static(Text("rostertui keys (Esc closes)", style="bold #f4b942"))
+            with Horizontal(id="help-columns"):
+                yield Static(bindings_table(sections), id="help-keys")
+                yield Static(self.legend(session), id="help-legend")
+
+    def on_resize(self) -> None:
+        self.set_class(self.size.width >= 150, "-wide")  # keys and legend side by side
+
+    @staticmethod
+    def legend(session) -> Text:
+        text = Text()
+        text.append("In the grid\n", style="bold underline #6a94e0")
+        for code, colour in shift_colours(session.ws.shifts.shift).items():
+            s = session.ws.shift_by_code[code]
+            text.append(f" {code} ", style=f"bold {colour} on #14181d")
+            text.append(f" {s.name} {s.start}-{s.end}\n")
+        for mark, style, meaning in (
+            (" · ", "#56606a on #14181d", "off"),
+            (" ~ ", "#b9a3e3 on #33284a", "leave (hard: no shift that day)"),
+            ("*", "bold #7fd98a", "a request, granted (red: not granted)"),
+            ("#", "bold #7ec8ff", "a locked cell: a solve keeps it; edits need an unlock"),
+            (" E ", "on #7a1f2b", "a cell in a hard violation"),
+            (" E ", "on #5a4514", "a cell in a soft violation (a penalty)"),
+            ("Sa", "#9fc3e0 on #223140", "weekend column"),
+            ("Fr", "#f0b37e on #3d2c1c", "holiday column"),
+            ("✖ ▲", "bold #ff5f5f", "before a name: a whole-period violation (hours, "
+                                   "weekends, shift counts), hard or soft"),
+            (" 2 ", "bold #ffffff on #7a1f2b", "cover row: below min or above max (hard)"),
+            (" 3 ", "#ffe6a8 on #5a4514", "cover row: away from the ideal (soft)"),
+        ):
+            text.append(mark, style=style)
+            text.append(f"  {meaning}\n")
+        text.append("\nRight of the days: hours, nights, weekends worked and requests granted "
+                    "per person; the status lines under the grid explain the cell under the "
+                    "cursor in words.", style="#aab4be")
+        return text

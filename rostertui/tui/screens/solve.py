@@ -1,0 +1,235 @@
+"""Live solve: options, then progress as solutions come, then what changed.
+
+The solver runs in a thread worker; its progress callback is a `ProgressRelay`,
+which posts at most one `SolveProgressed` at a time (and a newer one replaces a
+queued older one), so the UI never floods. A timer ticks the elapsed time between
+solutions. Escape stops the search and keeps the best roster found so far.
+The solved roster becomes the grid's roster, unsaved (ctrl+s saves, ctrl+z undoes).
+"""
+
+from __future__ import annotations
+
+import threading
+import time
+from dataclasses import dataclass
+
+from rich.text import Text
+from textual import on, work
+from textual.app import ComposeResult
+from textual.binding import Binding
+from textual.containers import Horizontal, Vertical
+from textual.reactive import reactive
+from textual.screen import ModalScreen
+from textual.widgets import Button, Input, Label, Sparkline, Static
+from textual.worker import Worker, WorkerState
+
+from rostertui.tui.messages import ProgressRelay, RosterSolved, SolveProgressed
+from rostertui.tui.state import Session, changed_cells
+
+
+@dataclass(frozen=True)
+class SolveSettings:
+    time_limit: float = 60.0
+    workers: int = 0
+    seed: int = 0
+
+
+def progress_text(elapsed: float, penalty: int | None, bound: int | None) -> Text:
+    text = Text.assemble(("elapsed ", "#8d99a6"), (f"{elapsed:6.1f} s", "bold"))
+    if penalty is None:
+        text.append("   searching for a first roster…", style="#f4b942")
+    else:
+        text.append("   penalty ", style="#8d99a6")
+        text.append(f"{penalty}", style="bold #8cc866")
+    if bound is not None:
+        text.append("   bound ", style="#8d99a6")
+        text.append(f"{bound}", style="bold")
+    if penalty is not None and bound is not None:
+        gap = 0.0 if penalty == 0 else max(0.0, (penalty - bound) / abs(penalty))
+        text.append("   gap ", style="#8d99a6")
+        text.append(f"{gap:.1%}", style="bold")
+    return text
+
+
+class SolveScreen(ModalScreen[None]):
+    CSS_PATH = "solve.tcss"
+
+    BINDINGS = [
+        Binding("escape", "stop_or_close", "Stop / close"),
+        Binding("enter", "start_or_close", "Start / close", show=False),
+        Binding("f1", "app.help", "Help", show=False),
+    ]
+
+    phase = reactive("ready")  # ready | running | done | failed
+
+    def __init__(self, settings: SolveSettings) -> None:
+        super().__init__()
+        self.settings = settings
+        self.cancel = threading.Event()
+        self.relay = ProgressRelay(self.post_message)
+        self.started = 0.0
+        self.last_penalty: int | None = None
+        self.last_bound: int | None = None
+        self.penalties: list[float] = []
+        self.summary = ""
+
+    @property
+    def session(self) -> Session:
+        return self.app.session  # type: ignore[attr-defined]
+
+    def compose(self) -> ComposeResult:
+        s = self.settings
+        with Vertical(id="panel"):
+            yield Label(f"Solve {self.session.ws.unit.name}", id="title")
+            with Horizontal(id="form"):
+                yield Label("time limit (s)")
+                yield Input(f"{s.time_limit:g}", type="number", id="time-limit")
+                yield Label("workers (0 = all)")
+                yield Input(str(s.workers), type="integer", id="workers")
+                yield Label("seed")
+                yield Input(str(s.seed), type="integer", id="seed")
+            yield Static("", id="progress")
+            yield Sparkline([], id="spark")
+            yield Static("", id="summary")
+            with Horizontal(id="buttons"):
+                yield Button("Start", id="start", variant="primary")
+                yield Button("Stop, keep the best", id="stop", variant="warning")
+                yield Button("Close", id="close")
+            yield Static("", id="hint")
+
+    def on_mount(self) -> None:
+        self.watch_phase("ready")
+        self.query_one("#start", Button).focus()
+
+    def watch_phase(self, phase: str) -> None:
+        self.set_class(phase == "ready", "-ready")
+        self.set_class(phase == "running", "-running")
+        self.set_class(phase in ("done", "failed"), "-done")
+        hints = {
+            "ready": "Enter starts · Esc closes · the current grid (with its locks) is the "
+                     "warm start",
+            "running": "Esc stops the search and keeps the best roster so far",
+            "done": "Enter or Esc closes · ctrl+s saves · ctrl+z gives back the old roster",
+            "failed": "Enter or Esc closes",
+        }
+        self.query_one("#hint", Static).update(hints[phase])
+
+    # -- starting -----------------------------------------------------------------------------
+    def _read_settings(self) -> SolveSettings | None:
+        try:
+            limit = float(self.query_one("#time-limit", Input).value)
+            workers = int(self.query_one("#workers", Input).value or 0)
+            seed = int(self.query_one("#seed", Input).value or 0)
+        except ValueError:
+            self.query_one("#summary", Static).update("time limit, workers and seed are numbers")
+            return None
+        if limit <= 0 or workers < 0:
+            self.query_one("#summary", Static).update(
+                "the time limit must be above 0 and workers 0 or more")
+            return None
+        return SolveSettings(limit, workers, seed)
+
+    def action_start_or_close(self) -> None:
+        if self.phase == "ready":
+            self.start()
+        elif self.phase in ("done", "failed"):
+            self.dismiss()
+
+    @on(Input.Submitted)
+    @on(Button.Pressed, "#start")
+    def start(self) -> None:
+        if self.phase != "ready":
+            return
+        settings = self._read_settings()
+        if settings is None:
+            return
+        self.settings = settings
+        self.app.solve_settings = settings  # type: ignore[attr-defined]
+        self.query_one("#summary", Static).update("")
+        self.phase = "running"
+        self.started = time.monotonic()
+        self.set_interval(0.25, self._tick, name="solve-clock")
+        self.query_one("#stop", Button).focus()
+        self.run_solve(self.session, settings)
+
+    @work(thread=True, exclusive=True, group="solve", exit_on_error=False)
+    def run_solve(self, session: Session, settings: SolveSettings):
+        from rostertui.core.solver import SolveOptions, solve
+
+        options = SolveOptions(time_limit=settings.time_limit, workers=settings.workers,
+                               seed=settings.seed)
+        return solve(session.workspace_for_solve(), options, on_progress=self.relay,
+                     cancel=self.cancel)
+
+    # -- progress -----------------------------------------------------------------------------
+    def _tick(self) -> None:
+        if self.phase == "running":
+            elapsed = time.monotonic() - self.started
+            self.query_one("#progress", Static).update(
+                progress_text(elapsed, self.last_penalty, self.last_bound))
+
+    @on(SolveProgressed)
+    def _progressed(self, event: SolveProgressed) -> None:
+        event.stop()
+        p = self.relay.take() or event.progress
+        self.last_penalty, self.last_bound = p.penalty, p.bound
+        if p.penalty is not None and (not self.penalties or self.penalties[-1] != p.penalty):
+            self.penalties.append(float(p.penalty))
+            self.query_one(Sparkline).data = list(self.penalties[-200:])
+        self._tick()
+
+    def action_stop_or_close(self) -> None:
+        if self.phase == "running":
+            self.cancel.set()
+            self.query_one("#hint", Static).update("stopping: keeping the best roster so far…")
+        else:
+            self.dismiss()
+
+    @on(Button.Pressed, "#stop")
+    def _stop(self) -> None:
+        self.action_stop_or_close()
+
+    @on(Button.Pressed, "#close")
+    def _close(self) -> None:
+        if self.phase != "running":
+            self.dismiss()
+
+    # -- the end ------------------------------------------------------------------------------
+    def on_worker_state_changed(self, event: Worker.StateChanged) -> None:
+        if event.worker.group != "solve":
+            return
+        if event.state == WorkerState.SUCCESS:
+            self._finished(event.worker.result)
+        elif event.state in (WorkerState.ERROR, WorkerState.CANCELLED):
+            self.phase = "failed"  # the app's one worker-failure handler shows the error
+            self.query_one("#summary", Static).update(
+                Text("The solve failed; the grid is unchanged.", style="bold #ff6b6b"))
+
+    def _finished(self, outcome) -> None:
+        before, before_check = self.session.roster, self.session.check
+        self.phase = "done"
+        self.last_penalty, self.last_bound = outcome.objective, outcome.bound
+        self.query_one("#progress", Static).update(
+            progress_text(outcome.seconds, outcome.objective, outcome.bound))
+        if outcome.roster is None:
+            why = ("No roster keeps every hard rule: the rules, cover, leave and locks "
+                   "contradict each other." if outcome.status == "infeasible" else
+                   "No roster found in the time given (not proven impossible either); "
+                   "try a longer time limit.")
+            self.summary = f"{why} The grid is unchanged."
+            self.query_one("#summary", Static).update(Text(self.summary, style="bold #ff6b6b"))
+            return
+        check = outcome.check
+        changed = changed_cells(before, outcome.roster)
+        stopped = " (stopped early)" if self.cancel.is_set() else ""
+        self.summary = (
+            f"{outcome.status}{stopped}: {len(changed)} cells changed; penalty "
+            f"{before_check.penalty} -> {check.penalty}; hard violations "
+            f"{before_check.hard_violations} -> {check.hard_violations}; "
+            f"{outcome.seconds:.1f} s. The new roster is in the grid, not saved yet.")
+        self.query_one("#summary", Static).update(Text(self.summary, style="bold"))
+        self.post_message(RosterSolved(outcome))
+        self.query_one("#close", Button).focus()
+
+    def on_unmount(self) -> None:
+        self.cancel.set()  # a solve still running stops with the screen

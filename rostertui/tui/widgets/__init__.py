@@ -1,0 +1,1 @@
+"""Widgets of the terminal UI: the roster grid, status lines, bars."""

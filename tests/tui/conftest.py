@@ -1,0 +1,32 @@
+"""Fixtures for the UI tests: a writable copy of the clinic demo, and a pilot runner.
+
+The pilot tests are plain sync tests that run their coroutine with `asyncio.run`, so
+they need no pytest plugin.
+"""
+
+from __future__ import annotations
+
+import asyncio
+from collections.abc import Awaitable, Callable
+from pathlib import Path
+
+import pytest
+
+from rostertui.core.io.load import load_workspace
+from rostertui.core.models.workspace import Workspace
+from tests.conftest import DEMO, copy_ws
+
+
+@pytest.fixture
+def clinic(tmp_path: Path) -> Path:
+    """A copy of demo/clinic (no roster.toml: everyone starts off)."""
+    return copy_ws(DEMO / "clinic", tmp_path, "clinic")
+
+
+@pytest.fixture
+def clinic_ws(clinic: Path) -> Workspace:
+    return load_workspace(clinic)
+
+
+def run(test: Callable[[], Awaitable[None]]) -> None:
+    asyncio.run(test())
