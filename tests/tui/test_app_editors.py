@@ -158,6 +158,9 @@ def test_a_preset_rule_is_overridden_by_a_local_rule(clinic: Path) -> None:
             assert isinstance(rules, RulesEditor)
             table = rules.query_one(DataTable)
             table.focus()
+            comments = [ln for ln in (clinic / "unit.toml").read_text().splitlines()
+                        if ln.lstrip().startswith("#")]
+            assert comments, "the demo's unit.toml is expected to hold comments"
             ids = [r.id for r in app.session.ws.rules]
             table.move_cursor(row=ids.index("max-days-in-row"))
             await pilot.press("enter")
@@ -167,6 +170,8 @@ def test_a_preset_rule_is_overridden_by_a_local_rule(clinic: Path) -> None:
             await pilot.press("ctrl+r")
             local = [r for r in toml(clinic, "unit.toml")["rule"] if r["id"] == "max-days-in-row"]
             assert local and local[0]["days"] == 5
+            kept = (clinic / "unit.toml").read_text()
+            assert all(c in kept for c in comments), "saving a rule lost the user's comments"
             eff = next(r for r in app.session.ws.rules if r.id == "max-days-in-row")
             assert eff.origin == "unit.toml" and eff.rule.days == 5
 

@@ -20,6 +20,7 @@ from textual.widgets import Button, DataTable, Static, TextArea
 
 from rostertui.core.errors import InputError
 from rostertui.core.io.save import as_toml_data
+from rostertui.core.io.toml_merge import merge_text, same_data
 from rostertui.core.models.rules import RULE_KINDS
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.tui.editing import apply
@@ -49,7 +50,8 @@ def params_text(data: dict[str, Any]) -> str:
 
 def unit_text(folder: Path, rule: dict[str, Any] | None, replaces: str | None) -> str:
     """unit.toml with the local rule `replaces` swapped for `rule` (or added, or removed)."""
-    data = tomllib.loads((folder / "unit.toml").read_text(encoding="utf-8"))
+    original = (folder / "unit.toml").read_text(encoding="utf-8")
+    data = tomllib.loads(original)
     rules = [r for r in data.get("rule", []) if r.get("id") != replaces]
     if rule is not None:
         at = next((i for i, r in enumerate(data.get("rule", [])) if r.get("id") == replaces),
@@ -59,7 +61,8 @@ def unit_text(folder: Path, rule: dict[str, Any] | None, replaces: str | None) -
         data["rule"] = rules
     else:
         data.pop("rule", None)
-    return tomli_w.dumps(data)
+    merged = merge_text(original, data)  # keeps the file's comments and layout
+    return merged if same_data(tomllib.loads(merged), data) else tomli_w.dumps(data)
 
 
 class RulesEditor(Vertical):

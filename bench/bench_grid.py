@@ -1,5 +1,5 @@
 """Cursor-move and edit cost on 100 people x 31 days: a measurement, not a test
-(pytest does not collect it). Run: .venv/bin/python tests/tui/bench_grid.py
+(pytest does not collect it). Run: .venv/bin/python bench/bench_grid.py
 
 Wall time per key through the pilot includes the pilot's own waiting (a no-op key is
 the baseline); CPU time per key is what the app spends (process time, same baseline).
