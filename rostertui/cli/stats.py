@@ -12,7 +12,7 @@ Each entry of `people` (staff order):
   `person`, `name`, `groups`   id, display name, group codes
   `hours`                      paid hours of shifts + leave credit (rules.md "Hours")
   `paid_hours`, `leave_hours`  the two parts of `hours`
-  `hours_rule`                 id of the person's first `hours` rule, or null
+  `hours_rule`                 id of the first `hours` rule that applies, or null
   `hours_min`, `hours_max`, `hours_target`   that rule's bounds (null when absent)
   `hours_deviation`            hours - target, else hours - (min + max) / 2, else null
   `shifts`, `by_shift`         shifts worked; per shift code (every code, 0 included)

@@ -91,7 +91,7 @@ credit_hours = 8
     assert s.person("b").hours == 0 and s.person("b").hours_deviation == -40
 
 
-def test_hours_rule_is_the_first_whose_scope_holds_the_person(stats: Stats) -> None:
+def test_hours_bounds_come_from_the_first_rules_that_give_them(stats: Stats) -> None:
     rules = """
 [[rule]]
 id = "night-team"
@@ -113,10 +113,10 @@ weight = 1
               groups={"a": ["nights"]})
     a, b = s.person("a"), s.person("b")
     assert (a.hours_rule, a.hours_min, a.hours_max, a.hours_target) == (
-        "night-team", None, 20, None)
-    assert a.hours_deviation is None  # a lone bound gives no reference
-    assert (b.hours_rule, b.hours_min, b.hours_max) == ("everyone", 10, 30)
-    assert b.hours_deviation == 8 - 20  # no target: the midpoint of min and max
+        "night-team", 10, 20, 99)  # max from night-team, min from everyone, target later
+    assert a.hours_deviation == 16 - 99
+    assert (b.hours_rule, b.hours_min, b.hours_max, b.hours_target) == ("everyone", 10, 30, 99)
+    assert b.hours_deviation == 8 - 99
 
 
 def test_no_hours_rule_means_no_bounds_and_no_deviation(stats: Stats) -> None:

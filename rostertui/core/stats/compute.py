@@ -13,16 +13,19 @@ from rostertui.core.models.workspace import Workspace
 from rostertui.core.stats.result import EVERYONE, GroupStats, PersonStats, RosterStats, Summary
 
 
-def _hours_rule(ws: Workspace, pid: str) -> HoursRule | None:
-    """The first effective `hours` rule whose scope includes the person."""
-    for eff in ws.rules:
-        if isinstance(eff.rule, HoursRule) and pid in eff.people:
-            return eff.rule
+def _hours_rules(ws: Workspace, pid: str) -> list[HoursRule]:
+    """The effective `hours` rules whose scope includes the person, in rule order."""
+    return [eff.rule for eff in ws.rules if isinstance(eff.rule, HoursRule) and pid in eff.people]
+
+
+def _first(rules: list[HoursRule], key: str) -> Fraction | None:
+    """`min`, `max` or `target` from the first of the rules that gives it (a unit often
+    keeps a hard band and a soft target in two rules)."""
+    for rule in rules:
+        value = getattr(rule, key)
+        if value is not None:
+            return exact(value)
     return None
-
-
-def _exact(value: float | None) -> Fraction | None:
-    return None if value is None else exact(value)
 
 
 def _requests(ws: Workspace, grid: Grid) -> dict[str, list[bool]]:
@@ -54,7 +57,7 @@ def _person(
     row = grid.rows[pid]
     leave = sum(grid.leave[pid].values(), Fraction(0)) if rostered else Fraction(0)
     worked = [i for i, code in enumerate(row) if code != OFF]
-    rule = _hours_rule(ws, pid)
+    rules = _hours_rules(ws, pid)
     longest = max((b - a + 1 for a, b, _, _ in stretches(grid, pid, _working)), default=0)
     return PersonStats(
         person=pid,
@@ -63,10 +66,10 @@ def _person(
         hours=grid.paid(pid) + leave,
         paid_hours=grid.paid(pid),
         leave_hours=leave,
-        hours_rule=rule.id if rule else None,
-        hours_min=_exact(rule.min) if rule else None,
-        hours_max=_exact(rule.max) if rule else None,
-        hours_target=_exact(rule.target) if rule else None,
+        hours_rule=rules[0].id if rules else None,
+        hours_min=_first(rules, "min"),
+        hours_max=_first(rules, "max"),
+        hours_target=_first(rules, "target"),
         shifts=len(worked),
         by_shift={code: row.count(code) for code in grid.codes_order},
         nights=sum(1 for code in row if code in grid.night_codes),
