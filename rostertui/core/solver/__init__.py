@@ -3,6 +3,18 @@
 `build_model(ws)` turns a workspace into a CP-SAT model whose objective is the
 rules.md penalty; `solve(ws, options)` runs it with live progress and returns the
 roster, judged afterwards by the independent checker (`rostertui.core.check`).
+
+Where each rule lives:
+
+* cells.py      one shift a day, leave, `requires`, locks, history, hard not-available
+* cover.py      cover min / max / ideal
+* requests.py   requests
+* rest.py       min-rest, weekly-rest
+* stretches.py  max/min-consecutive-days, min-consecutive-off, max-consecutive-shift
+* sequences.py  forbidden-sequence
+* counts.py     max/min-shifts, hours, max-average-weekly-hours, soft not-available
+* weekends.py   max-weekends, complete-weekends
+* balance.py    balance
 """
 
 from rostertui.core.solver.run import SolveOptions, SolveOutcome, SolveProgress, solve

@@ -9,13 +9,13 @@ from __future__ import annotations
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.screen import Screen
 from textual.widgets import DataTable, Footer, TabbedContent, TabPane
 
 from rostertui.core.models.requests import Leave, Request
 from rostertui.core.models.shifts import Cover, Shift
 from rostertui.core.models.staff import Person
 from rostertui.tui.messages import WorkspaceEdited
+from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.state import Session
 from rostertui.tui.widgets.list_editor import ListEditor, ListSpec
 from rostertui.tui.widgets.rules_editor import RulesEditor
@@ -39,7 +39,7 @@ SPECS = (
 )
 
 
-class EditorsScreen(Screen):
+class EditorsScreen(PanelScreen):
     CSS_PATH = "editors.tcss"
 
     BINDINGS = [
@@ -49,7 +49,6 @@ class EditorsScreen(Screen):
 
     def __init__(self) -> None:
         super().__init__()
-        self._stale = False
 
     def session(self) -> Session:
         return self.app.session  # type: ignore[attr-defined]
@@ -65,7 +64,7 @@ class EditorsScreen(Screen):
         yield Footer(compact=True, show_command_palette=False)
 
     def on_mount(self) -> None:
-        self.watch(self.app, "revision", self._revised, init=False)
+        self.follow_revisions()
         self.query_one(SummaryBar).show(self.session(), "edit")
         self.call_after_refresh(self._focus_list)
 
@@ -75,17 +74,6 @@ class EditorsScreen(Screen):
         pane = self.query_one(TabbedContent).active_pane
         if pane is not None:
             pane.query_one(DataTable).focus()
-
-    def _revised(self) -> None:
-        if self.is_current:
-            self.reload()
-        else:
-            self._stale = True
-
-    def on_screen_resume(self) -> None:
-        if self._stale:
-            self._stale = False
-            self.reload()
 
     def reload(self) -> None:
         self.query_one(SummaryBar).show(self.session(), "edit")

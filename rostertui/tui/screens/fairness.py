@@ -13,12 +13,12 @@ from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
-from textual.screen import Screen
 from textual.widgets import DataTable, Footer, Static
 
 from rostertui.core.check.messages import number
 from rostertui.core.stats import PersonStats
 from rostertui.tui.messages import GotoCell
+from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.state import Session
 from rostertui.tui.widgets.bars import bar, hours_bar, range_bar
 from rostertui.tui.widgets.status import SummaryBar
@@ -30,7 +30,7 @@ def _signed(value: Fraction | int | None) -> str:
     return ("+" if value > 0 else "") + number(value)
 
 
-class FairnessScreen(Screen):
+class FairnessScreen(PanelScreen):
     CSS_PATH = "fairness.tcss"
 
     BINDINGS = [
@@ -39,7 +39,6 @@ class FairnessScreen(Screen):
 
     def __init__(self) -> None:
         super().__init__()
-        self._stale = False
         self._width = 0
 
     @property
@@ -54,20 +53,9 @@ class FairnessScreen(Screen):
         yield Footer(compact=True, show_command_palette=False)
 
     def on_mount(self) -> None:
-        self.watch(self.app, "revision", self._revised, init=False)
+        self.follow_revisions()
         self.reload()
         self.query_one("#people", DataTable).focus()
-
-    def _revised(self) -> None:
-        if self.is_current:
-            self.reload()
-        else:
-            self._stale = True
-
-    def on_screen_resume(self) -> None:
-        if self._stale:
-            self._stale = False
-            self.reload()
 
     def on_resize(self) -> None:
         if self.size.width != self._width:

@@ -10,12 +10,12 @@ from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal
-from textual.screen import Screen
 from textual.widgets import DataTable, Footer, Label, Select, Static
 
 from rostertui.core.check import Violation
 from rostertui.core.check.messages import day as day_text
 from rostertui.tui.messages import GotoCell
+from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.state import Session
 from rostertui.tui.widgets.status import HARD_MARK, SOFT_MARK, SummaryBar, violation_line
 
@@ -38,7 +38,7 @@ def matches(v: Violation, kind: str, person: str, rule: str) -> bool:
     return rule == ALL or v.rule == rule
 
 
-class ViolationsScreen(Screen):
+class ViolationsScreen(PanelScreen):
     CSS_PATH = "violations.tcss"
 
     BINDINGS = [
@@ -53,7 +53,6 @@ class ViolationsScreen(Screen):
     def __init__(self) -> None:
         super().__init__()
         self.shown: list[Violation] = []
-        self._stale = False
 
     @property
     def session(self) -> Session:
@@ -79,20 +78,9 @@ class ViolationsScreen(Screen):
         table.add_column("penalty", key="penalty", width=7)
         table.add_column("rule", key="rule")
         table.add_column("source", key="source")
-        self.watch(self.app, "revision", self._revised, init=False)
+        self.follow_revisions()
         self.reload()
         table.focus()
-
-    def _revised(self) -> None:
-        if self.is_current:
-            self.reload()
-        else:
-            self._stale = True
-
-    def on_screen_resume(self) -> None:
-        if self._stale:
-            self._stale = False
-            self.reload()
 
     # -- filling --------------------------------------------------------------------------
     def _filters(self) -> tuple[str, str, str]:
