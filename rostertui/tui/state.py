@@ -150,7 +150,8 @@ class Session:
         row[day] = code
         rows = {**self.roster.rows, pid: row}
         shown = "off" if code == OFF else code
-        return self._apply(self.roster.model_copy(update={"rows": rows}),
+        # the [solve] record describes the solver's roster, not a hand-edited one
+        return self._apply(self.roster.model_copy(update={"rows": rows, "solve": None}),
                            f"{pid} day {day + 1}: {old[day]} -> {shown}")
 
     def toggle_lock(self, pid: str, day: int) -> bool:

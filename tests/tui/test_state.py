@@ -107,3 +107,19 @@ def test_the_solver_sees_the_grid_not_the_file(clinic_ws: Workspace) -> None:
     assert ws.roster is not None and ws.roster.rows["c01"][0] == "E"
     assert ws.roster.lock[0].person == "c01"
     assert clinic_ws.roster is None  # the loaded workspace is untouched
+
+
+def test_a_hand_edit_drops_the_solve_record_and_undo_brings_it_back(
+        clinic_ws: Workspace) -> None:
+    from rostertui.core.models.roster import SolveRecord
+
+    session = Session(clinic_ws)
+    pid = clinic_ws.person_ids[0]
+    solved = session.roster.model_copy(update={"solve": SolveRecord(
+        status="feasible", objective=1234, bound=1000, seconds=5.0, seed=0)})
+    session.replace(solved, "solve")
+    assert session.roster.solve is not None and session.roster.solve.objective == 1234
+    session.set_cell(pid, 0, "E")
+    assert session.roster.solve is None  # its objective no longer describes the roster
+    session.undo()
+    assert session.roster.solve is not None and session.roster.solve.objective == 1234
