@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import argparse
 import shutil
+import tomllib
 from pathlib import Path
 
 from rostertui.cli.output import EXIT_OK, fail
@@ -16,6 +17,13 @@ def demos_dir() -> Path:
     """Bundled demos: inside an installed wheel, or the checkout's demo/ folder."""
     bundled = _PACKAGE / "_demo"
     return bundled if bundled.is_dir() else _PACKAGE.parent / "demo"
+
+
+def _unit_name(folder: Path) -> str | None:
+    try:
+        return tomllib.loads((folder / "unit.toml").read_text(encoding="utf-8")).get("name")
+    except (OSError, ValueError):
+        return None
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
@@ -32,7 +40,10 @@ def do_demo(folder: str | Path, *, unit: str = "clinic", open_it: bool = True) -
     if not source.is_dir():
         return fail(f"bundled demo {unit!r} not found at {source}")
     if (folder / "unit.toml").exists():
-        print(f"{folder} already holds a workspace; opening it as it is (nothing copied)")
+        if _unit_name(folder) != _unit_name(source):
+            return fail(f"{folder} already holds another workspace ({_unit_name(folder)}); "
+                        f"nothing copied. Give another folder: rostertui demo DIR --unit {unit}")
+        print(f"{folder} already holds this demo; opening it as it is (nothing copied)")
     elif folder.exists() and any(folder.iterdir()):
         return fail(f"{folder} exists and is not empty; choose another folder")
     else:

@@ -104,3 +104,18 @@ def test_clinic_with_three_mistakes_reports_all_three_and_writes_nothing(
     assert "staff.toml: person[" in err and "unknown skill 'triagee'" in err
     assert "nothing was written" in err
     assert snapshot(ws) == before
+
+
+def test_demo_copies_once_and_never_overwrites(tmp_path: Path,
+                                               capsys: pytest.CaptureFixture[str]) -> None:
+    target = tmp_path / "demo-here"
+    assert main(["demo", str(target), "--no-open"]) == 0
+    assert (target / "unit.toml").read_text() == (DEMO / "clinic" / "unit.toml").read_text()
+    (target / "staff.toml").write_text((target / "staff.toml").read_text() + "\n# mine\n")
+    assert main(["demo", str(target), "--no-open"]) == 0  # the same demo: kept as it is
+    assert (target / "staff.toml").read_text().endswith("# mine\n")
+    capsys.readouterr()
+    assert main(["demo", str(target), "--unit", "depot", "--no-open"]) == 2
+    assert "already holds another workspace" in capsys.readouterr().err
+    assert (target / "unit.toml").read_text() == (DEMO / "clinic" / "unit.toml").read_text()
+    assert (target / "staff.toml").read_text().endswith("# mine\n")
