@@ -183,8 +183,10 @@ def solve(
     solver.parameters.num_workers = options.workers or os.cpu_count() or 1
     solver.parameters.random_seed = options.seed
     solver.parameters.log_search_progress = options.log
-    # a fuller LP in the search: measured on Curtois-Qu 5, 6, 7, 10 at 30 s, 2 workers,
-    # it found 1-21 % better rosters; neutral on the demo and generated units
+    # A fuller LP in the search. Single 30 s runs on Curtois-Qu 5, 6, 7, 10 looked
+    # 1-21 % better with it, but over 3 seeds at 20 s on 5, 9, 10 the medians are
+    # within the noise (1249/1246, 481/476, 5277/5167 with/without): no measured gain
+    # either way. Kept because BENCHMARKS.md was measured with it.
     solver.parameters.linearization_level = 2
     relaxation = Relaxation(built.model) if options.lp_bound else None
     started = time.monotonic()
