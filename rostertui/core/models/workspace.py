@@ -8,7 +8,7 @@ from functools import cached_property
 from pathlib import Path
 
 from rostertui.core.errors import Problem
-from rostertui.core.models.common import NIGHT_SELECTOR, OFF
+from rostertui.core.models.common import NIGHT_SELECTOR
 from rostertui.core.models.history import History
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Roster
@@ -70,6 +70,3 @@ class Workspace:
         if selector == NIGHT_SELECTOR:
             return frozenset(s.code for s in self.shifts.shift if s.is_night)
         return frozenset([selector])
-
-    def is_code(self, value: str) -> bool:
-        return value == OFF or value in self.shift_by_code

@@ -36,7 +36,6 @@ class Cells:
         self.codes = [s.code for s in ws.shifts.shift]
         self.n = ws.unit.days
         self.start = ws.unit.start
-        self._works: dict[tuple[int, int], Lit] = {}
         self._on: dict[tuple[int, int, frozenset[str]], Lit] = {}
         history = ws.history.rows if ws.history is not None else {}
         self.history = [tuple(history.get(pid, ())) for pid in self.people]

@@ -38,18 +38,16 @@ def add_shift_count(b: Build, eff: EffectiveRule) -> None:
         expr, lo, hi = shift_count(b, b.cells.pindex[pid], codes)
         over = (expr - rule.count, lo - rule.count, hi - rule.count) if most else \
             (rule.count - expr, rule.count - hi, rule.count - lo)
-        _deviation(b, eff, pid, *over, divisor=1)
+        deviation(b, eff, pid, *over, divisor=1)
 
 
-def _deviation(b: Build, eff: EffectiveRule, pid: str, expr: cp_model.LinearExprT, lo: int,
+def deviation(b: Build, eff: EffectiveRule, pid: str, expr: cp_model.LinearExprT, lo: int,
                hi: int, divisor: int) -> None:
     """Hard: expr <= 0. Soft: units = ceil(max(0, expr) / divisor)."""
     rule = eff.rule
     if hi <= 0:
         return
     if rule.weight is None:
-        if lo > 0:
-            b.constant_breaches.append(f"{rule.id} for {pid} cannot hold")
         b.model.add(expr <= 0)
         return
     name = f"{rule.id}.{pid}"
@@ -69,10 +67,10 @@ def add_hours(b: Build, eff: EffectiveRule, hours: Hours) -> None:
         expr, lo, hi = hours.of(b.cells.pindex[pid])
         if rule.max is not None:
             m = hours.scaled(exact(rule.max))
-            _deviation(b, eff, pid, expr - m, lo - m, hi - m, s)
+            deviation(b, eff, pid, expr - m, lo - m, hi - m, s)
         if rule.min is not None:
             m = hours.scaled(exact(rule.min))
-            _deviation(b, eff, pid, m - expr, m - hi, m - lo, s)
+            deviation(b, eff, pid, m - expr, m - hi, m - lo, s)
         if rule.target is not None and rule.weight is not None:
             t = hours.scaled(exact(rule.target))
             top = max(abs(lo - t), abs(hi - t))
@@ -95,7 +93,7 @@ def add_average_hours(b: Build, eff: EffectiveRule, hours: Hours) -> None:
             base = 0
             limit = hours.scaled(per_week * Fraction(b.cells.n, 7))
         shift = base - limit
-        _deviation(b, eff, pid, expr + shift, lo + shift, hi + shift, hours.scale)
+        deviation(b, eff, pid, expr + shift, lo + shift, hi + shift, hours.scale)
 
 
 def add_not_available(b: Build, eff: EffectiveRule) -> None:

@@ -34,8 +34,6 @@ def add_cover(b: Build) -> None:
             day: tuple[date, ...] = (cells.date(d),)
             if c.min is not None:
                 if top < c.min:
-                    b.constant_breaches.append(
-                        f"cover {c.shift} on {cells.date(d)}: {top} can work it, needs {c.min}")
                     model.add_bool_or([])
                 elif vars_:
                     model.add(count >= c.min)

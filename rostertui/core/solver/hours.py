@@ -13,7 +13,7 @@ from fractions import Fraction
 
 from ortools.sat.python import cp_model
 
-from rostertui.core.models.rules import Balance, HoursRule, MaxAverageWeeklyHours
+from rostertui.core.models.rules import HoursRule, MaxAverageWeeklyHours
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.cells import Cells
 
@@ -45,8 +45,6 @@ class Hours:
                 values += [exact(v) for v in (rule.min, rule.max, rule.target) if v is not None]
             elif isinstance(rule, MaxAverageWeeklyHours):
                 values += [exact(rule.hours), exact(rule.hours) * Fraction(cells.n, 7)]
-            elif isinstance(rule, Balance):
-                pass
         if ws.history is not None:
             values += [exact(v) for v in ws.history.hours_before.values()]
         scale = 1

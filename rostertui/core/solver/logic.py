@@ -26,19 +26,25 @@ def negate(lit: Lit) -> Lit:
     return lit.Not()
 
 
+def _variables(lits: Iterable[Lit], absorbing: bool) -> list[cp_model.IntVar] | None:
+    """The variables among `lits`, without repeats; None if one is the constant `absorbing`
+    (False for a conjunction, True for a disjunction). Other constants drop out."""
+    found: list[cp_model.IntVar] = []
+    for lit in lits:
+        if lit is absorbing:
+            return None
+        if not isinstance(lit, bool):
+            found.append(lit)
+    return list(dict.fromkeys(found))
+
+
 def all_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
     """A literal equal to the conjunction of `lits` (constants folded away)."""
-    rest: list[cp_model.IntVar] = []
-    for lit in lits:
-        if lit is False:
-            return False
-        if lit is not True:
-            rest.append(lit)  # type: ignore[arg-type]
-    rest = list(dict.fromkeys(rest))
-    if not rest:
-        return True
-    if len(rest) == 1:
-        return rest[0]
+    rest = _variables(lits, absorbing=False)
+    if rest is None:
+        return False
+    if len(rest) <= 1:
+        return rest[0] if rest else True
     b = model.new_bool_var(name or "and")
     model.add_bool_and(rest).only_enforce_if(b)
     model.add_bool_or([r.Not() for r in rest]).only_enforce_if(b.Not())
@@ -47,17 +53,11 @@ def all_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
 
 def any_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
     """A literal equal to the disjunction of `lits` (constants folded away)."""
-    rest: list[cp_model.IntVar] = []
-    for lit in lits:
-        if lit is True:
-            return True
-        if lit is not False:
-            rest.append(lit)  # type: ignore[arg-type]
-    rest = list(dict.fromkeys(rest))
-    if not rest:
-        return False
-    if len(rest) == 1:
-        return rest[0]
+    rest = _variables(lits, absorbing=True)
+    if rest is None:
+        return True
+    if len(rest) <= 1:
+        return rest[0] if rest else False
     b = model.new_bool_var(name or "or")
     model.add_bool_or(rest).only_enforce_if(b)
     for r in rest:
@@ -93,17 +93,11 @@ def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.IntVar], int]:
 
 def breach(model: cp_model.CpModel, lits: Sequence[Lit], name: str = "") -> Lit:
     """Penalty literal: at least the conjunction of `lits` (1 when all hold)."""
-    vars_: list[cp_model.IntVar] = []
-    for lit in lits:
-        if lit is False:
-            return False
-        if lit is not True:
-            vars_.append(lit)  # type: ignore[arg-type]
-    vars_ = list(dict.fromkeys(vars_))
-    if not vars_:
-        return True
-    if len(vars_) == 1:
-        return vars_[0]
+    vars_ = _variables(lits, absorbing=False)
+    if vars_ is None:
+        return False
+    if len(vars_) <= 1:
+        return vars_[0] if vars_ else True
     b = model.new_bool_var(name or "breach")
     model.add_bool_or([b, *(v.Not() for v in vars_)])
     return b

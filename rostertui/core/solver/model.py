@@ -42,8 +42,7 @@ def build_model(ws: Workspace) -> Built:
     model = cp_model.CpModel()
     cells = Cells(ws, model)
     b = Build(model, cells)
-    for _p, _d, code, why in cells.lock_conflicts:
-        b.constant_breaches.append(f"lock {code}: {why}")
+    if cells.lock_conflicts:  # a locked shift the cell cannot hold: no roster keeps it
         model.add_bool_or([])
     hours = Hours(cells)
     weekends = WeekendsWorked(b)

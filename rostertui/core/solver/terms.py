@@ -30,7 +30,6 @@ class Build:
     model: cp_model.CpModel
     cells: Cells
     terms: list[Term] = field(default_factory=list)
-    constant_breaches: list[str] = field(default_factory=list)
 
     def add(self, rule: str, kind: str, person: str | None, dates: tuple[date, ...],
             weight: int, units: cp_model.IntVar | int | Lit) -> None:

@@ -9,7 +9,8 @@ from rostertui.core.models.common import WEEKDAYS
 from rostertui.core.models.rules import CompleteWeekends, MaxWeekends
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
-from rostertui.core.solver.logic import Lit, any_of, bool_sum, excess, forbid, negate
+from rostertui.core.solver.counts import deviation
+from rostertui.core.solver.logic import Lit, any_of, bool_sum, forbid, negate
 from rostertui.core.solver.terms import Build
 
 
@@ -58,14 +59,7 @@ def add_max_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
     assert isinstance(rule, MaxWeekends)
     for pid in eff.people:
         expr, lo, hi = ww.count(b.cells.pindex[pid])
-        if hi <= rule.count:
-            continue
-        if rule.weight is None:
-            b.model.add(expr <= rule.count)
-        else:
-            units = excess(b.model, expr - rule.count, lo - rule.count, hi - rule.count,
-                           f"{rule.id}.{pid}")
-            b.add(rule.id, rule.kind, pid, (), rule.weight, units)
+        deviation(b, eff, pid, expr - rule.count, lo - rule.count, hi - rule.count, 1)
 
 
 def add_complete_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
