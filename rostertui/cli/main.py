@@ -8,10 +8,10 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from rostertui import __version__
-from rostertui.cli import check, demo, new, solve, stats
+from rostertui.cli import absent, check, demo, diff, new, publish, repair, solve, stats, swap
 from rostertui.cli import open as open_verb
-from rostertui.cli.output import EXIT_INPUT, fail_input
-from rostertui.core.errors import InputError
+from rostertui.cli.output import EXIT_INPUT, fail, fail_input
+from rostertui.core.errors import EditError, InputError
 
 DESCRIPTION = """Build, repair and audit staff rosters.
 
@@ -28,7 +28,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (open_verb, check, stats, solve, new, demo):
+    for module in (open_verb, check, stats, solve, repair, publish, diff, swap, absent, new,
+                   demo):
         module.register(verbs)
     return parser
 
@@ -59,6 +60,8 @@ def main(argv: Sequence[str] | None = None) -> int:
         return int(args.run(args))
     except InputError as exc:
         return fail_input(exc)
+    except EditError as exc:
+        return fail(f"{exc}; nothing written")
     except KeyboardInterrupt:
         print("interrupted; nothing written", file=sys.stderr)
         return EXIT_INPUT

@@ -77,7 +77,10 @@ def format_progress(p: SolveProgress) -> str:
     if p.penalty is None:
         return f"{p.elapsed:7.1f} s  searching for a first roster...  bound {p.bound}"
     gap = 0.0 if p.penalty == 0 else max(0.0, (p.penalty - p.bound) / abs(p.penalty))
-    return f"{p.elapsed:7.1f} s  penalty {p.penalty:>8}  bound {p.bound:>8}  gap {gap:6.1%}"
+    text = f"{p.elapsed:7.1f} s  penalty {p.penalty:>8}  bound {p.bound:>8}  gap {gap:6.1%}"
+    if p.changes is not None:
+        text += f"  cells changed {p.changes:>4}"
+    return text
 
 
 @contextmanager

@@ -38,3 +38,8 @@ class InputError(RosterError):
         n = len(self.problems)
         head = f"{n} problem{'s' if n != 1 else ''} in the input:"
         return "\n".join([head, *(f"  {p}" for p in self.problems)])
+
+
+class EditError(RosterError):
+    """A change to a roster that cannot be made (unknown person, date outside the
+    period, a locked cell); the message says why, in words."""

@@ -34,7 +34,7 @@ def write_atomic(path: Path, data: str | bytes) -> None:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
         raise
-    _fsync_dir(path.parent)
+    fsync_dir(path.parent)
 
 
 def _umask() -> int:
@@ -43,7 +43,7 @@ def _umask() -> int:
     return mask
 
 
-def _fsync_dir(folder: Path) -> None:
+def fsync_dir(folder: Path) -> None:
     if os.name != "posix":
         return
     try:

@@ -169,6 +169,8 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
     elif Path(roster_file).suffix.lower() != ".csv":
         roster_label = Path(roster_file).name
         data = read_toml(Path(roster_file), roster_label, report)
+        if data is not None:
+            data.pop("published", None)  # a published version: its metadata is not roster data
         roster = validate(Roster, data, roster_label, report) if data is not None else None
     unit, staff, shifts = models["unit.toml"], models["staff.toml"], models["shifts.toml"]
     requests = models["requests.toml"] or RequestsFile()

@@ -11,6 +11,12 @@ from rostertui.core.models.common import Strict, Weekday
 from rostertui.core.models.rules import Rule
 
 
+class RepairSettings(Strict):
+    """`[repair]` in unit.toml (our extension): what one changed cell costs in a repair."""
+
+    change_weight: int = Field(default=1000, ge=1)
+
+
 class Unit(Strict):
     name: str
     timezone: str
@@ -20,6 +26,7 @@ class Unit(Strict):
     holidays: list[date] = Field(default_factory=list)
     include: list[str] = Field(default_factory=list)
     rule: list[Rule] = Field(default_factory=list)
+    repair: RepairSettings = Field(default_factory=RepairSettings)
 
     @field_validator("timezone")
     @classmethod

@@ -28,6 +28,7 @@ class Cells:
     x: dict[tuple[int, int, str], cp_model.IntVar] = field(init=False, default_factory=dict)
     locked: dict[tuple[int, int], str] = field(init=False, default_factory=dict)
     lock_conflicts: list[tuple[int, int, str, str]] = field(init=False, default_factory=list)
+    frozen: int = 0  # days [0, frozen) keep the current roster's codes (repair, the past)
 
     def __post_init__(self) -> None:
         ws = self.ws
@@ -41,6 +42,7 @@ class Cells:
         self.history = [tuple(history.get(pid, ())) for pid in self.people]
         allowed = self._allowed()
         self._read_locks()
+        self._freeze()
         for p, pid in enumerate(self.people):
             for d in range(self.n):
                 lock = self.locked.get((p, d))
@@ -107,6 +109,15 @@ class Cells:
                 d = (day - self.start).days
                 if 0 <= d < self.n:
                     self.locked[p, d] = row[d] if row is not None and d < len(row) else OFF
+
+    def _freeze(self) -> None:
+        """Days before `frozen` are fixed like locks, to the current roster's codes."""
+        roster = self.ws.roster
+        rows = roster.rows if roster is not None else {}
+        for p, pid in enumerate(self.people):
+            row = rows.get(pid, ())
+            for d in range(min(self.frozen, self.n)):
+                self.locked[p, d] = row[d] if d < len(row) else OFF
 
     # -- accessors ---------------------------------------------------------------------
     def date(self, d: int) -> date:

@@ -32,12 +32,13 @@ def add_cover(b: Build) -> None:
             count = sum(vars_) + const if vars_ else const
             top = len(vars_) + const
             day: tuple[date, ...] = (cells.date(d),)
-            if c.min is not None:
+            past = d < cells.frozen  # fixed days: a shortfall there cannot be repaired
+            if c.min is not None and not past:
                 if top < c.min:
                     model.add_bool_or([])
                 elif vars_:
                     model.add(count >= c.min)
-            if c.max is not None:
+            if c.max is not None and not past:
                 if const > c.max:
                     model.add_bool_or([])
                 elif vars_ and top > c.max:

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from dataclasses import dataclass
+from dataclasses import dataclass, field
 
 from ortools.sat.python import cp_model
 
@@ -19,6 +19,8 @@ from rostertui.core.solver.counts import (
 )
 from rostertui.core.solver.cover import add_cover
 from rostertui.core.solver.hours import Hours
+from rostertui.core.solver.keep import Keep, change_literals
+from rostertui.core.solver.logic import Lit
 from rostertui.core.solver.requests import add_requests
 from rostertui.core.solver.rest import OffRuns, add_min_rest, add_weekly_rest
 from rostertui.core.solver.sequences import add_forbidden_sequence
@@ -36,11 +38,18 @@ class Built:
     model: cp_model.CpModel
     cells: Cells
     build: Build
+    keep: Keep | None = None
+    changes: list[Lit] = field(default_factory=list)  # repair: one per changed cell
+
+    def change_cost(self, changes: int) -> int:
+        return self.keep.weight * changes if self.keep is not None else 0
 
 
-def build_model(ws: Workspace) -> Built:
+def build_model(ws: Workspace, keep: Keep | None = None) -> Built:
+    """The model of `ws`; with `keep`, also a cost per cell changed from a reference
+    roster, and the first `keep.frozen` days fixed (repair)."""
     model = cp_model.CpModel()
-    cells = Cells(ws, model)
+    cells = Cells(ws, model, frozen=keep.frozen if keep is not None else 0)
     b = Build(model, cells)
     if cells.lock_conflicts:  # a locked shift the cell cannot hold: no roster keeps it
         model.add_bool_or([])
@@ -78,5 +87,9 @@ def build_model(ws: Workspace) -> Built:
             add_balance(b, eff, hours, weekends)
         else:  # pragma: no cover - every kind of the union is handled above
             raise TypeError(f"no model for rule kind {rule.kind!r}")
-    model.minimize(b.objective())
-    return Built(model, cells, b)
+    changes = change_literals(cells, keep) if keep is not None else []
+    if keep is not None and changes:
+        model.minimize(b.objective() + keep.weight * sum(changes))
+    else:
+        model.minimize(b.objective())
+    return Built(model, cells, b, keep, changes)

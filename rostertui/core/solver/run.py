@@ -12,6 +12,7 @@ import threading
 import time
 from collections.abc import Callable
 from dataclasses import dataclass, field
+from datetime import date, timedelta
 
 from ortools.sat.python import cp_model
 
@@ -20,6 +21,7 @@ from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import Built, build_model
 
@@ -44,6 +46,7 @@ class SolveProgress:
     elapsed: float
     penalty: int | None  # best roster found so far (None before the first)
     bound: int  # proven lower bound on the penalty
+    changes: int | None = None  # repair: cells the best roster changes
 
 
 @dataclass
@@ -59,6 +62,7 @@ class SolveOutcome:
     first_seconds: float | None = None  # time to the first roster
     best_seconds: float | None = None  # time to the best roster
     history: list[SolveProgress] = field(default_factory=list)
+    changes: int | None = None  # repair: cells changed from the reference roster
 
     @property
     def gap(self) -> float | None:
@@ -83,7 +87,8 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.on_progress = on_progress
         self.cancel = cancel
         self.best: dict[tuple[int, int, str], int] | None = None
-        self.best_objective: int | None = None
+        self.best_objective: int | None = None  # penalty + change cost (repair)
+        self.best_changes = 0
         self.first_seconds: float | None = None
         self.best_seconds: float | None = None
         self.history: list[SolveProgress] = []
@@ -97,6 +102,7 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         if self.best_objective is None or objective <= self.best_objective:
             self.best = {key: self.value(var) for key, var in self.built.cells.x.items()}
             self.best_objective = objective
+            self.best_changes = sum(self.boolean_value(lit) for lit in self.built.changes)
             self.best_seconds = elapsed
             if self.first_seconds is None:
                 self.first_seconds = elapsed
@@ -111,7 +117,14 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
             if bound is not None:
                 self.cp_bound = max(self.cp_bound, bound)
             best = max(self.cp_bound, self.lp_bound or 0)
-            progress = SolveProgress(elapsed, self.best_objective, best)
+            penalty = self.best_objective
+            changes = None
+            if self.built.keep is not None:  # show the penalty alone, not the change cost
+                changes = self.best_changes
+                cost = self.built.change_cost(changes)
+                best = max(0, best - cost) if penalty is not None else 0
+                penalty = penalty - cost if penalty is not None else None
+            progress = SolveProgress(elapsed, penalty, best, changes)
             self.history.append(progress)
         if self.on_progress is not None:
             self.on_progress(progress)
@@ -170,11 +183,18 @@ def solve(
     options: SolveOptions | None = None,
     on_progress: ProgressCallback | None = None,
     cancel: threading.Event | None = None,
+    keep: Keep | None = None,
 ) -> SolveOutcome:
-    """Build and solve; the returned roster is refereed by the checker."""
+    """Build and solve; the returned roster is refereed by the checker.
+
+    With `keep` (repair), each cell changed from `keep.rows` costs `keep.weight` on
+    top of the penalty and the first `keep.frozen` days stay as they are. The
+    outcome's objective and bound are still the rules.md penalty: the bound is then
+    proven for rosters changing no more cells than the one returned.
+    """
     options = options or SolveOptions()
     t0 = time.monotonic()
-    built = build_model(ws)
+    built = build_model(ws, keep)
     build_seconds = time.monotonic() - t0
     if options.warm_start:
         _hint(built)
@@ -188,7 +208,7 @@ def solve(
     # within the noise (1249/1246, 481/476, 5277/5167 with/without): no measured gain
     # either way. Kept because BENCHMARKS.md was measured with it.
     solver.parameters.linearization_level = 2
-    relaxation = Relaxation(built.model) if options.lp_bound else None
+    relaxation = Relaxation(built.model) if options.lp_bound and keep is None else None
     started = time.monotonic()
     recorder = _Recorder(built, started, on_progress, cancel)
     solver.best_bound_callback = lambda bound: recorder.report(
@@ -220,18 +240,23 @@ def solve(
         outcome.status = status
         return outcome
     roster = roster_from(built, recorder.best)
-    objective = polish(built, recorder.best)
+    total, changes = polish(built, recorder.best)
     bound = max(round(solver.best_objective_bound), recorder.lp_bound or 0)
-    if recorder.lp_bound is not None and objective < recorder.lp_bound:
+    if recorder.lp_bound is not None and total < recorder.lp_bound:
         raise RefereeError(f"the LP bound {recorder.lp_bound} lies above the penalty "
-                           f"{objective} of a roster: the relaxation is wrong")
-    if objective <= bound:
+                           f"{total} of a roster: the relaxation is wrong")
+    if total <= bound:
         status = outcome.status = "optimal"
+    cost = built.change_cost(changes)
+    objective, bound = total - cost, max(0, bound - cost)
+    if keep is not None:
+        outcome.changes = changes
     roster.solve = SolveRecord(status=status, objective=objective, bound=min(bound, objective),
                                seconds=round(seconds, 3), seed=options.seed)
     outcome.roster, outcome.objective, outcome.bound = roster, objective, min(bound, objective)
     outcome.first_seconds, outcome.best_seconds = recorder.first_seconds, recorder.best_seconds
-    outcome.check = referee(ws, roster, objective)
+    past = ws.unit.start + timedelta(days=keep.frozen) if keep is not None else None
+    outcome.check = referee(ws, roster, objective, past_before=past)
     return outcome
 
 
@@ -248,11 +273,13 @@ def _lp_worker(relaxation: Relaxation, options: SolveOptions, recorder: _Recorde
         solver.stop_search()
 
 
-def polish(built: Built, values: dict[tuple[int, int, str], int]) -> int:
-    """The exact penalty of a found roster under the model: fix every cell, minimise.
+def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
+    """The exact objective of a found roster under the model: fix every cell, minimise.
 
     Penalty variables are only bounded from below during the search (logic.py);
-    with the roster fixed, the minimum brings each down to its exact value.
+    with the roster fixed, the minimum brings each down to its exact value. Returns
+    the objective (penalty plus any change cost) and the number of changed cells
+    the objective counts (repair; 0 otherwise).
     """
     fixed = _fixed(built, values)
     solver = cp_model.CpSolver()
@@ -260,16 +287,24 @@ def polish(built: Built, values: dict[tuple[int, int, str], int]) -> int:
     solver.parameters.max_time_in_seconds = 60
     if solver.solve(fixed) != cp_model.OPTIMAL:
         raise RefereeError("the solver could not evaluate its own roster exactly")
-    return round(solver.objective_value)
+    changes = sum(solver.boolean_value(lit) for lit in built.changes)
+    return round(solver.objective_value), changes
 
 
-def referee(ws: Workspace, roster: Roster, objective: int | None) -> CheckResult:
-    """The checker's verdict on the solver's roster; disagreement is a bug."""
+def referee(ws: Workspace, roster: Roster, objective: int | None,
+            past_before: date | None = None) -> CheckResult:
+    """The checker's verdict on the solver's roster; disagreement is a bug.
+
+    `past_before` (repair): days before it were fixed, so a cover shortfall there is
+    the past's, not the solver's.
+    """
     result = check_roster(ws, roster)
-    if result.hard_violations:
-        first = next(v for v in result.violations if v.hard)
+    wrong = [v for v in result.violations if v.hard and not (
+        past_before is not None and v.kind == "cover" and all(d < past_before for d in v.dates))]
+    if wrong:
+        first = wrong[0]
         raise RefereeError(
-            f"the solver returned a roster with {result.hard_violations} hard violation(s), "
+            f"the solver returned a roster with {len(wrong)} hard violation(s), "
             f"e.g. {first.rule}: {first.message}")
     if objective is not None and result.penalty != objective:
         raise RefereeError(

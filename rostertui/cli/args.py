@@ -1,0 +1,58 @@
+"""Argument types and small formatting helpers shared by the verbs that change a roster."""
+
+from __future__ import annotations
+
+import argparse
+from datetime import date, datetime
+from zoneinfo import ZoneInfo
+
+from rostertui.core.check import Violation
+from rostertui.core.models.common import OFF
+from rostertui.core.models.workspace import Workspace
+from rostertui.core.repair.diff import CellDiff
+
+
+def iso_date(text: str) -> date:
+    """argparse type: a date as YYYY-MM-DD (argparse then exits 2 with this message)."""
+    try:
+        return date.fromisoformat(text)
+    except ValueError:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a date; write YYYY-MM-DD") from None
+
+
+def version_number(text: str) -> int:
+    """argparse type: a published version, `3` or `v3`."""
+    raw = text[1:] if text[:1] in "vV" else text
+    if not raw.isdigit() or int(raw) < 1:
+        raise argparse.ArgumentTypeError(f"{text!r} is not a version number (1, 2, ... or v1)")
+    return int(raw)
+
+
+def today_in(ws: Workspace) -> date:
+    """Today's date where the unit is."""
+    return datetime.now(ZoneInfo(ws.unit.timezone)).date()
+
+
+def day(d: date) -> str:
+    return f"{d:%a} {d.day} {d:%b}"
+
+
+def code(c: str) -> str:
+    return "off" if c == OFF else c
+
+
+def person(ws: Workspace, pid: str | None) -> str:
+    if pid is None:
+        return "cover"
+    found = ws.person_by_id.get(pid)
+    return f"{found.name} ({pid})" if found else pid
+
+
+def cell_line(ws: Workspace, c: CellDiff) -> str:
+    return f"{person(ws, c.person):<32} {day(c.date):<11} {code(c.before):>4} -> {code(c.after)}"
+
+
+def violation_line(v: Violation) -> str:
+    tag = "HARD" if v.hard else f"soft {v.penalty}"
+    who = f"{v.person}: " if v.person else ""
+    return f"{tag:<9} {who}{v.rule}: {v.message}"
