@@ -120,11 +120,16 @@ def _cover_rows(ws: Workspace, grid: Grid) -> list[str]:
 
 
 def _bounds(p: PersonStats) -> str:
+    """The person's hours rule: "target 150", "120-165", "min 60", "max 48" or ""."""
     if p.hours_target is not None:
         return f"target {hours_text(p.hours_target)}"
-    low = "" if p.hours_min is None else hours_text(p.hours_min)
-    high = "" if p.hours_max is None else hours_text(p.hours_max)
-    return f"{low}-{high}" if low or high else ""
+    if p.hours_min is not None and p.hours_max is not None:
+        return f"{hours_text(p.hours_min)}-{hours_text(p.hours_max)}"
+    if p.hours_min is not None:
+        return f"min {hours_text(p.hours_min)}"
+    if p.hours_max is not None:
+        return f"max {hours_text(p.hours_max)}"
+    return ""
 
 
 def roster_html(ws: Workspace) -> str:
