@@ -2,7 +2,7 @@
 
 Writes files for spreadsheets, calendars and print (rostertui.core.io.export):
 
-  --to csv               long form person,date,shift,start,end,paid_hours,name,note
+  --to csv               long form person,date,shift,start,end,paid_hours
                          (`check --roster` reads it back); default WS/export/roster.csv
   --to csv --grid        one row per person, one column per date; WS/export/roster-grid.csv
   --to ics               every shift in one calendar; WS/export/roster.ics

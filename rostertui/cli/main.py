@@ -8,7 +8,19 @@ from collections.abc import Sequence
 from pathlib import Path
 
 from rostertui import __version__
-from rostertui.cli import absent, check, demo, diff, new, publish, repair, solve, stats, swap
+from rostertui.cli import (
+    absent,
+    check,
+    demo,
+    diff,
+    export,
+    new,
+    publish,
+    repair,
+    solve,
+    stats,
+    swap,
+)
 from rostertui.cli import open as open_verb
 from rostertui.cli.output import EXIT_INPUT, fail, fail_input
 from rostertui.core.errors import EditError, InputError
@@ -28,8 +40,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (open_verb, check, stats, solve, repair, publish, diff, swap, absent, new,
-                   demo):
+    for module in (open_verb, check, stats, solve, repair, publish, diff, swap, absent, export,
+                   new, demo):
         module.register(verbs)
     return parser
 

@@ -1,17 +1,17 @@
 """CSV (RFC 4180: comma separated, CRLF line ends, quotes doubled) in two forms.
 
 * Long form, one row per worked shift, for `check --roster` and pivot tables:
-  `person,date,shift,start,end,paid_hours,name,note`. The first six columns are the
-  interchange format; `name` and `note` follow for people reading it (the roster
-  reader ignores extra columns). Days off are not rows, so they read back as off.
+  `person,date,shift,start,end,paid_hours`, plain UTF-8 (no byte order mark: it is
+  the interchange format, read by programs). Days off are not rows, so they read
+  back as off.
   `start` and `end` are ISO 8601 local times with their UTC offset
   (`2027-03-27T22:00+00:00`): exact across midnight and DST.
 * Grid form, for printing from a spreadsheet: one row per person, one column per
   date (ISO dates in the header), `-` for a day off, then shifts, paid hours
-  (shifts + leave credit) and notes.
+  (shifts + leave credit) and notes; it starts with a UTF-8 byte order mark so that
+spreadsheets read accented names right.
 
-Every field goes through `neutralise` (formula injection); both texts start with a
-UTF-8 byte order mark so that spreadsheets read accented names right.
+Every field goes through `neutralise` (formula injection).
 """
 
 from __future__ import annotations
@@ -32,22 +32,20 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
 
 BOM = "\ufeff"
-LONG_HEADER = ("person", "date", "shift", "start", "end", "paid_hours", "name", "note")
+LONG_HEADER = ("person", "date", "shift", "start", "end", "paid_hours")
 
 
-def to_csv(rows: Iterable[Iterable[str]]) -> str:
+def to_csv(rows: Iterable[Iterable[str]], bom: bool = True) -> str:
     """RFC 4180 text: CRLF line ends, fields quoted when they hold , " CR or LF."""
     out = io.StringIO()
     writer = csv.writer(out, lineterminator="\r\n", quoting=csv.QUOTE_MINIMAL)
     for row in rows:
         writer.writerow([neutralise(field) for field in row])
-    return BOM + out.getvalue()
+    return (BOM if bom else "") + out.getvalue()
 
 
 def long_csv(ws: Workspace) -> str:
     """The long form: one row per worked shift, staff order then date."""
-    names = {p.id: p.name for p in ws.staff.person}
-    noted = notes(ws)
     rows: list[tuple[str, ...]] = [LONG_HEADER]
     for cell in worked_cells(ws):
         rows.append((
@@ -57,10 +55,8 @@ def long_csv(ws: Workspace) -> str:
             cell.start.isoformat(timespec="minutes"),
             cell.end.isoformat(timespec="minutes"),
             hours_text(paid_hours(cell.shift)),
-            names[cell.person],
-            "; ".join(noted.get((cell.person, cell.date), [])),
         ))
-    return to_csv(rows)
+    return to_csv(rows, bom=False)
 
 
 def grid_csv(ws: Workspace) -> str:

@@ -87,9 +87,17 @@ weight = 4
 """
 
 
-def hostile_ws(folder: Path, timezone: str = "Europe/Lisbon") -> Path:
+TAME = {  # the same workspace with harmless text, to compare the markup with
+    FORMULA_NAME: "Pat One", QUOTED_NAME: "Jo Smith", MARKUP_NAME: "Ana Bold",
+    SCRIPT_NOTE: "school play", DDE_REASON: "annual leave", PLUS_NOTE: "call me",
+    "Ward & <i>B</i>": "Ward B", "Art. 3 <i>": "Art. 3", "<img src=x onerror=alert(2)>": "two",
+}
+
+
+def hostile_ws(folder: Path, timezone: str = "Europe/Lisbon", tame: bool = False) -> Path:
     """Three people (one named like a formula, one with a comma and quotes, one with
-    markup), a note that is a script, and p1's night across the spring DST change."""
+    markup), a note that is a script, and p1's night across the spring DST change.
+    `tame`: the same workspace with every hostile text replaced by a harmless one."""
     write_ws(
         folder, rows=dict(ROWS), start="2027-03-22", timezone=timezone, shifts=SHIFTS,
         cover=COVER, requests=REQUESTS, rules=RULES, unit_extra="holidays = [2027-03-26]",
@@ -104,6 +112,12 @@ def hostile_ws(folder: Path, timezone: str = "Europe/Lisbon") -> Path:
         'name = "Test ward"', "name = '''Ward & <i>B</i>'''"
     )
     (folder / "unit.toml").write_text(text)
+    if tame:
+        for path in folder.glob("*.toml"):
+            text = path.read_text()
+            for hostile, harmless in TAME.items():
+                text = text.replace(hostile, harmless)
+            path.write_text(text)
     return folder
 
 

@@ -68,7 +68,7 @@ def test_night_across_dst_parses_back_to_the_right_instants(
 def test_night_ends_the_next_day(hostile_loaded: Workspace) -> None:
     uids = by_uid(ics_all(hostile_loaded, NOW))
     night = next(e for uid, e in uids.items() if uid.startswith("p3-2027-03-22@"))
-    assert night.decoded("DTSTART") .date() == date(2027, 3, 22)
+    assert night.decoded("DTSTART").date() == date(2027, 3, 22)
     assert night.decoded("DTEND").date() == date(2027, 3, 23)
     assert utc(night, "DTEND") - utc(night, "DTSTART") == timedelta(hours=9)
 
