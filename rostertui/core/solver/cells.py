@@ -29,6 +29,7 @@ class Cells:
     locked: dict[tuple[int, int], str] = field(init=False, default_factory=dict)
     lock_conflicts: list[tuple[int, int, str, str]] = field(init=False, default_factory=list)
     frozen: int = 0  # days [0, frozen) keep the current roster's codes (repair, the past)
+    relaxed: bool = False  # explain: leave, locks, hard not-available become switchable
 
     def __post_init__(self) -> None:
         ws = self.ws
@@ -82,7 +83,8 @@ class Cells:
         for pid in self.people:
             able = [c for c in self.codes if set(shifts[c].requires) <= skills[pid]]
             out.append([
-                [] if (pid, d) in leave else [c for c in able if (pid, d, c) not in blocked]
+                [] if (pid, d) in leave and not self.relaxed
+                else [c for c in able if self.relaxed or (pid, d, c) not in blocked]
                 for d in range(self.n)
             ])
         return out
@@ -98,7 +100,7 @@ class Cells:
 
     def _read_locks(self) -> None:
         roster = self.ws.roster
-        if roster is None:
+        if roster is None or self.relaxed:  # explaining: each lock is a switchable item
             return
         for lock in roster.lock:
             p = self.pindex.get(lock.person)

@@ -16,7 +16,7 @@ from rostertui.core.models.rules import (
 )
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.hours import Hours, exact
-from rostertui.core.solver.logic import absolute, bool_sum, ceil_div, excess
+from rostertui.core.solver.logic import absolute, bool_sum, ceil_div, excess, forbid
 from rostertui.core.solver.terms import Build
 
 
@@ -48,7 +48,10 @@ def deviation(b: Build, eff: EffectiveRule, pid: str, expr: cp_model.LinearExprT
     if hi <= 0:
         return
     if rule.weight is None:
-        b.model.add(expr <= 0)
+        if isinstance(expr, int):  # a constant: holds, or breaks whatever is rostered
+            b.hard(b.model.add_bool_or([]) if expr > 0 else None)
+        else:
+            b.hard(b.model.add(expr <= 0))
         return
     name = f"{rule.id}.{pid}"
     if isinstance(expr, int):
@@ -97,15 +100,19 @@ def add_average_hours(b: Build, eff: EffectiveRule, hours: Hours) -> None:
 
 
 def add_not_available(b: Build, eff: EffectiveRule) -> None:
-    """Soft part only: hard not-available cells have no variable at all (cells.py)."""
+    """Soft part, and the hard part when explaining: otherwise hard not-available cells
+    have no variable at all (cells.py)."""
     rule = eff.rule
     assert isinstance(rule, NotAvailable)
-    if rule.weight is None:
-        return
     cells = b.cells
+    if rule.weight is None and not cells.relaxed:
+        return
     codes = cells.ws.select(rule.shift) if rule.shift else frozenset(cells.codes)
     for pid in eff.people:
         p = cells.pindex[pid]
         for d in cells.not_available_days(rule):
-            b.add(rule.id, rule.kind, pid, (cells.date(d),), rule.weight,
-                  cells.on(p, d, frozenset(codes)))
+            works = cells.on(p, d, frozenset(codes))
+            if rule.weight is None:
+                b.hard(forbid(b.model, [works]))
+            else:
+                b.add(rule.id, rule.kind, pid, (cells.date(d),), rule.weight, works)

@@ -2,13 +2,18 @@
 
 from __future__ import annotations
 
+from collections.abc import Callable
 from datetime import date
+
+from ortools.sat.python import cp_model
 
 from rostertui.core.models.common import WEEKDAYS
 from rostertui.core.models.shifts import Cover
 from rostertui.core.solver.cells import Cells
-from rostertui.core.solver.logic import bool_sum, excess
+from rostertui.core.solver.logic import Lit, bool_sum, excess
 from rostertui.core.solver.terms import Build
+
+CoverSwitch = Callable[[int, int], Lit]  # (cover entry, day) -> its switch
 
 
 def cover_days(cover: Cover, cells: Cells) -> list[int]:
@@ -22,8 +27,13 @@ def cover_days(cover: Cover, cells: Cells) -> list[int]:
     return list(range(cells.n))
 
 
-def add_cover(b: Build) -> None:
+def add_cover(b: Build, items: CoverSwitch | None = None, gap_weight: int | None = None
+              ) -> list[tuple[int, int, cp_model.IntVar | int]]:
+    """Cover constraints and ideal penalties. `items` (explain) gives each minimum and
+    maximum on each date its own switch; `gap_weight` turns each minimum into a
+    penalty of that weight per person short, returning (entry, day, shortfall)."""
     cells, model = b.cells, b.model
+    gaps: list[tuple[int, int, cp_model.IntVar | int]] = []
     skills = [set(cells.ws.person_by_id[pid].skills) for pid in cells.people]
     for k, c in enumerate(cells.ws.shifts.cover):
         holders = [p for p in range(len(cells.people)) if c.skill is None or c.skill in skills[p]]
@@ -33,16 +43,24 @@ def add_cover(b: Build) -> None:
             top = len(vars_) + const
             day: tuple[date, ...] = (cells.date(d),)
             past = d < cells.frozen  # fixed days: a shortfall there cannot be repaired
-            if c.min is not None and not past:
+            b.enforce = items(k, d) if items is not None else None
+            if c.min is not None and not past and gap_weight is not None:
+                short: cp_model.IntVar | int = max(0, c.min - const)
+                if vars_:
+                    short = excess(model, c.min - count, c.min - top, c.min - const,
+                                   f"cover[{k}].{d}.gap")
+                gaps.append((k, d, short))
+            elif c.min is not None and not past:
                 if top < c.min:
-                    model.add_bool_or([])
+                    b.hard(model.add_bool_or([]))
                 elif vars_:
-                    model.add(count >= c.min)
+                    b.hard(model.add(count >= c.min))
             if c.max is not None and not past:
                 if const > c.max:
-                    model.add_bool_or([])
+                    b.hard(model.add_bool_or([]))
                 elif vars_ and top > c.max:
-                    model.add(count <= c.max)
+                    b.hard(model.add(count <= c.max))
+            b.enforce = None
             if c.ideal is not None:
                 name = f"cover[{k}].{d}"
                 if c.under_weight:
@@ -59,3 +77,4 @@ def add_cover(b: Build) -> None:
                         b.add("cover", "cover", None, day, c.over_weight, over)
                     else:
                         b.add("cover", "cover", None, day, c.over_weight, max(0, const - c.ideal))
+    return gaps

@@ -65,18 +65,17 @@ def any_of(model: cp_model.CpModel, lits: Iterable[Lit], name: str = "") -> Lit:
     return b
 
 
-def forbid(model: cp_model.CpModel, lits: Sequence[Lit]) -> None:
-    """Hard: not all of `lits` at once."""
+def forbid(model: cp_model.CpModel, lits: Sequence[Lit]) -> cp_model.Constraint | None:
+    """Hard: not all of `lits` at once. Returns the constraint (None when it always holds)."""
     clause: list[Lit] = []
     for lit in lits:
         if lit is False:
-            return
+            return None
         if lit is not True:
             clause.append(negate(lit))
     if not clause:
-        model.add_bool_or([])  # a constant breach: the model is infeasible
-        return
-    model.add_bool_or(clause)  # type: ignore[arg-type]
+        return model.add_bool_or([])  # a constant breach: the model is infeasible
+    return model.add_bool_or(clause)  # type: ignore[arg-type]
 
 
 def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.IntVar], int]:

@@ -75,7 +75,7 @@ def add_min_rest(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRuns)
                             continue
                         lits = [a_lit, b_lit, between]
                         if rule.weight is None:
-                            forbid(b.model, lits)
+                            b.hard(forbid(b.model, lits))
                         else:
                             b.add(rule.id, rule.kind, pid, (cells.date(i), cells.date(j)),
                                   rule.weight, breach(b.model, lits))
@@ -106,7 +106,7 @@ def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock) -> None:
             ends = _rest_ends(b, p, f, last, lo, hi, need, clock)
             if rule.weight is None:
                 if ends is not True:
-                    b.model.add_bool_or(ends)  # empty: the window can never pass
+                    b.hard(b.model.add_bool_or(ends))  # empty: the window can never pass
             elif ends is not True:
                 short = b.model.new_bool_var(f"{rule.id}.{pid}.{f}")
                 b.model.add_bool_or([short, *ends])

@@ -33,7 +33,7 @@ def add_forbidden_sequence(b: Build, eff: EffectiveRule) -> None:
             follows = any_of(b.model, after)
             dates = (cells.date(d - 1), cells.date(d))
             if rule.weight is None:
-                forbid(b.model, [before, follows])
+                b.hard(forbid(b.model, [before, follows]))
             else:
                 b.add(rule.id, rule.kind, pid, dates, rule.weight,
                       breach(b.model, [before, follows]))

@@ -55,7 +55,7 @@ def add_max_stretch(b: Build, eff: EffectiveRule) -> None:
             if any(w is False for w in window):
                 continue
             if rule.weight is None:
-                forbid(b.model, window)
+                b.hard(forbid(b.model, window))
             else:
                 dates = (cells.date(max(t - limit, 0)), cells.date(t))
                 b.add(rule.id, rule.kind, pid, dates, rule.weight, breach(b.model, window))
@@ -86,7 +86,7 @@ def add_min_stretch(b: Build, eff: EffectiveRule) -> None:
                 if any(x is False for x in lits):
                     continue
                 if rule.weight is None:
-                    forbid(b.model, lits)
+                    b.hard(forbid(b.model, lits))
                 else:
                     b.add(rule.id, rule.kind, pid, (cells.date(max(a, 0)), cells.date(z)),
                           rule.weight * (rule.days - length), breach(b.model, lits))

@@ -30,6 +30,12 @@ class Build:
     model: cp_model.CpModel
     cells: Cells
     terms: list[Term] = field(default_factory=list)
+    enforce: Lit | None = None  # explain: the switch of the hard item being posted
+
+    def hard(self, constraint: cp_model.Constraint | None) -> None:
+        """A hard rule's constraint: switched by `enforce` when explaining, else as is."""
+        if constraint is not None and self.enforce is not None and self.enforce is not True:
+            constraint.only_enforce_if(self.enforce)  # type: ignore[arg-type]
 
     def add(self, rule: str, kind: str, person: str | None, dates: tuple[date, ...],
             weight: int, units: cp_model.IntVar | int | Lit) -> None:

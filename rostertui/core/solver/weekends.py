@@ -74,8 +74,8 @@ def add_complete_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> N
             days = [cells.works(p, d) for d in range(a, z + 1)]
             if rule.weight is None:
                 for d in range(a, z):
-                    forbid(b.model, [days[d - a], negate(days[d - a + 1])])
-                    forbid(b.model, [negate(days[d - a]), days[d - a + 1]])
+                    b.hard(forbid(b.model, [days[d - a], negate(days[d - a + 1])]))
+                    b.hard(forbid(b.model, [negate(days[d - a]), days[d - a + 1]]))
             else:  # worked in part: some day worked and another not
                 partial = b.model.new_bool_var(f"{rule.id}.{pid}.{k}")
                 for d1 in days:
