@@ -13,6 +13,7 @@ from rostertui.cli import (
     check,
     demo,
     diff,
+    explain,
     export,
     new,
     publish,
@@ -40,8 +41,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (open_verb, check, stats, solve, repair, publish, diff, swap, absent, export,
-                   new, demo):
+    for module in (open_verb, check, stats, solve, explain, repair, publish, diff, swap, absent,
+                   export, new, demo):
         module.register(verbs)
     return parser
 

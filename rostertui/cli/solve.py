@@ -123,6 +123,7 @@ def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 
         if outcome.status == "infeasible":
             print("No roster keeps every hard rule: the rules, cover, leave and locks "
                   "contradict each other. Nothing was written.", file=sys.stderr)
+            print_explanation(ws, time_limit, workers)
         else:
             print(f"No roster found within {time_limit:g} s (not proven impossible either); "
                   "try a longer --time-limit. Nothing was written.", file=sys.stderr)
@@ -136,6 +137,17 @@ def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 
     else:
         print(summary(ws, outcome))
     return EXIT_OK if outcome.check.compliant else EXIT_HARD
+
+
+def print_explanation(ws: Workspace, time_limit: float, workers: int) -> None:
+    """Why, on stderr (stdout may carry the JSON): `rostertui explain` without prices."""
+    from rostertui.core.explain.run import explain
+
+    print("Why:", file=sys.stderr)
+    result = explain(ws, min(60.0, max(10.0, time_limit)), workers, price_requests=False)
+    for i, reason in enumerate(result.reasons, start=1):
+        print(f"{i}. {reason.message}", file=sys.stderr)
+    print("(rostertui explain WS --json gives the same as data.)", file=sys.stderr)
 
 
 def summary(ws: Workspace, outcome: SolveOutcome) -> str:
