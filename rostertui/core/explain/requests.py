@@ -1,9 +1,12 @@
-"""What a denied request would cost: solve again with it granted and compare.
+"""What a denied request would cost: grant it with the fewest changes and compare.
 
 For each request the current roster does not grant, the request becomes hard (a
 lock on the cell for `want`, a hard not-available for `avoid`) and the roster is
-solved again from the current one. The difference in penalty is its price; the
-violations the new roster adds are who pays it.
+repaired around it: as few cells as possible change (the unit's repair
+`change_weight` each), nothing else moves. The difference in penalty is its
+price; the violations the new roster adds are who pays it. Re-solving from
+scratch instead would mix the request's price with whatever a fresh search finds
+elsewhere.
 """
 
 from __future__ import annotations
@@ -19,8 +22,10 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.requests import Request
 from rostertui.core.models.roster import Lock
 from rostertui.core.models.workspace import EffectiveRule, Workspace
+from rostertui.core.repair.diff import CellDiff, roster_diff
 from rostertui.core.repair.impact import impact
 from rostertui.core.repair.swap import full_rows
+from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.run import SolveOptions, solve
 
 
@@ -30,6 +35,7 @@ class RequestCost:
     status: str  # "granted" (priced), "impossible" (a hard rule forbids it), "unknown"
     cost: int | None  # penalty with it granted minus the current penalty
     paid_by: tuple[Violation, ...] = ()
+    changed: tuple[CellDiff, ...] = ()  # the cells that move to grant it
 
     def message(self, ws: Workspace) -> str:
         r = self.request
@@ -42,14 +48,17 @@ class RequestCost:
             return f"{head}: not priced within the time limit."
         payers = "; ".join(f"{v.person + ': ' if v.person else ''}{v.message}"
                            for v in self.paid_by)
-        return (f"{head}: granting it would change the penalty by {self.cost:+d}"
-                + (f", paid by: {payers}" if payers else "") + ".")
+        n = len(self.changed)
+        return (f"{head}: granting it ({n} cell{'s' if n != 1 else ''} changed) would change "
+                f"the penalty by {self.cost:+d}" + (f", paid by: {payers}" if payers else "")
+                + ".")
 
     def to_json(self, ws: Workspace) -> dict[str, Any]:
         r = self.request
         return {"person": r.person, "date": r.date.isoformat(), "want": r.want,
                 "avoid": r.avoid, "status": self.status, "cost": self.cost,
-                "paid_by": [v.to_json() for v in self.paid_by], "message": self.message(ws)}
+                "paid_by": [v.to_json() for v in self.paid_by],
+                "changed": [c.to_json() for c in self.changed], "message": self.message(ws)}
 
 
 def denied(ws: Workspace, check: CheckResult) -> list[Request]:
@@ -74,12 +83,15 @@ def granted(ws: Workspace, r: Request) -> Workspace:
 
 
 def price(ws: Workspace, r: Request, options: SolveOptions) -> RequestCost:
+    assert ws.roster is not None
     current = check_roster(ws)
-    out = solve(granted(ws, r), options)
+    keep = Keep(rows=full_rows(ws, ws.roster), weight=ws.unit.repair.change_weight)
+    out = solve(granted(ws, r), options, keep=keep)
     if out.roster is None:
         status = "impossible" if out.status == "infeasible" else "unknown"
         return RequestCost(r, status, None)
     after = check_roster(ws, out.roster)
     paid = [v for v in impact(current, after).created
             if not (v.kind == "request" and v.person == r.person and v.dates == (r.date,))]
-    return RequestCost(r, "granted", after.penalty - current.penalty, tuple(paid))
+    moved = tuple(roster_diff(ws, ws.roster, out.roster))
+    return RequestCost(r, "granted", after.penalty - current.penalty, tuple(paid), moved)

@@ -134,6 +134,8 @@ def test_a_denied_request_is_priced_with_who_pays(tmp_path: Path) -> None:
     [cost] = result.requests
     assert (cost.request.person, cost.status, cost.cost) == ("a", "granted", 2)
     assert [(v.kind, v.person) for v in cost.paid_by] == [("request", "b")]
+    assert sorted((c.person, c.before, c.after) for c in cost.changed) == [
+        ("a", "E", "-"), ("b", "-", "E")]  # granted by swapping 1 Mar, nothing else moves
     assert "+2" in cost.message(ws)
 
 
