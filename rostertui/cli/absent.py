@@ -48,8 +48,8 @@ def do_absent(workspace: str | Path, person: str, first: date, last: date | None
     assert ws.path is not None
     try:
         absence = record_absence(ws, person, first, last, reason, credit_hours)
-    except (EditError, ValueError) as exc:  # ValueError: pydantic's, e.g. credit hours > 24
-        return fail(_plain(exc))
+    except EditError as exc:
+        return fail(str(exc))
     before = check_roster(ws)
     after_ws = dataclasses.replace(ws, requests=absence.requests, roster=absence.roster)
     effect = impact(before, check_roster(after_ws))
@@ -84,11 +84,3 @@ def do_absent(workspace: str | Path, person: str, first: date, last: date | None
         print("Run rostertui repair to fill the gaps with as few changes as possible.")
     return EXIT_OK if after.compliant else EXIT_HARD
 
-
-def _plain(exc: Exception) -> str:
-    errors = getattr(exc, "errors", None)
-    if callable(errors):  # a pydantic ValidationError: its first message, without the URL
-        first = errors()[0]
-        where = ".".join(str(x) for x in first.get("loc", ()))
-        return f"requests.toml: leave.{where}: {first.get('msg')}"
-    return str(exc)

@@ -3,8 +3,7 @@
 from __future__ import annotations
 
 import argparse
-from datetime import date, datetime
-from zoneinfo import ZoneInfo
+from datetime import date
 
 from rostertui.core.check import Violation
 from rostertui.core.models.common import OFF
@@ -26,11 +25,6 @@ def version_number(text: str) -> int:
     if not raw.isdigit() or int(raw) < 1:
         raise argparse.ArgumentTypeError(f"{text!r} is not a version number (1, 2, ... or v1)")
     return int(raw)
-
-
-def today_in(ws: Workspace) -> date:
-    """Today's date where the unit is."""
-    return datetime.now(ZoneInfo(ws.unit.timezone)).date()
 
 
 def day(d: date) -> str:

@@ -8,7 +8,7 @@ import threading
 from datetime import date
 from pathlib import Path
 
-from rostertui.cli.args import cell_line, day, iso_date, today_in, violation_line
+from rostertui.cli.args import cell_line, day, iso_date, violation_line
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
 from rostertui.cli.solve import ProgressLine, ctrl_c_cancels
 from rostertui.core.errors import EditError
@@ -48,7 +48,7 @@ def do_repair(workspace: str | Path, *, start_from: date | None = None,
     ws = load_workspace(workspace)
     warn(ws.warnings)
     assert ws.path is not None
-    first = start_from or default_from(ws, today_in(ws))
+    first = start_from or default_from(ws)
     options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed)
     cancel = threading.Event()
     line = ProgressLine(sys.stderr)

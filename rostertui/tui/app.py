@@ -21,10 +21,12 @@ from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog
 from rostertui.tui.screens.editors import EditorsScreen
 from rostertui.tui.screens.fairness import FairnessScreen
 from rostertui.tui.screens.help import HelpScreen
+from rostertui.tui.screens.repair import RepairScreen
 from rostertui.tui.screens.roster import RosterScreen
-from rostertui.tui.screens.solve import SolveScreen, SolveSettings
+from rostertui.tui.screens.solve import SearchScreen, SolveScreen, SolveSettings
+from rostertui.tui.screens.versions import VersionsScreen
 from rostertui.tui.screens.violations import ViolationsScreen
-from rostertui.tui.state import Session, changed_cells
+from rostertui.tui.state import Session
 
 
 class RosterApp(App[int]):
@@ -41,6 +43,8 @@ class RosterApp(App[int]):
         Binding("f4", "switch_mode('fairness')", "Fairness", key_display="F4"),
         Binding("f5", "solve", "Solve", key_display="F5"),
         Binding("f6", "switch_mode('edit')", "Edit", key_display="F6"),
+        Binding("f8", "repair", "Repair", key_display="F8"),
+        Binding("f9", "versions", "Versions", key_display="F9"),
         Binding("ctrl+s", "save", "Save"),
         Binding("ctrl+z", "undo", "Undo"),
         Binding("ctrl+y", "redo", "Redo", show=False),
@@ -53,6 +57,7 @@ class RosterApp(App[int]):
         super().__init__()
         self.session = Session(ws)
         self.solve_settings = solve_settings or SolveSettings()
+        self.compare_to: int | None = None  # the version diff mode compares with (None: last)
         self.title = f"rostertui · {ws.unit.name}"
 
     def on_mount(self) -> None:
@@ -78,7 +83,14 @@ class RosterApp(App[int]):
     def get_system_commands(self, screen: Screen) -> Iterable[SystemCommand]:
         yield from super().get_system_commands(screen)
         yield SystemCommand("Solve", "Build a roster with the solver (F5)", self.action_solve)
-        yield SystemCommand("Save", "Write roster.toml (ctrl+s)", self.action_save)
+        yield SystemCommand("Repair", "Solve again changing as few cells as possible (F8)",
+                            self.action_repair)
+        yield SystemCommand("Versions", "Published versions; publish the roster (F9)",
+                            self.action_versions)
+        yield SystemCommand("Diff", "Highlight the cells changed since the last published "
+                            "version (ctrl+d in the grid)", self.action_diff)
+        yield SystemCommand("Save", "Write roster.toml, and requests.toml after an absence "
+                            "(ctrl+s)", self.action_save)
         yield SystemCommand("Undo", "Undo the last change (ctrl+z)", self.action_undo)
         yield SystemCommand("Keys", "Every key binding (F1)", self.action_help)
 
@@ -87,17 +99,50 @@ class RosterApp(App[int]):
         if not isinstance(self.screen, HelpScreen):
             self.push_screen(HelpScreen())
 
+    def searching(self) -> bool:
+        """A solve or a repair is open (one at a time: each replaces the grid's roster)."""
+        if any(isinstance(s, SearchScreen) for s in self.screen_stack):
+            self.notify("a solve or repair is open: Esc closes it first", timeout=3)
+            return True
+        return False
+
     def action_solve(self) -> None:
-        if not isinstance(self.screen, SolveScreen):
+        if not self.searching():
             self.push_screen(SolveScreen(self.solve_settings))
+
+    def action_repair(self) -> None:
+        if not self.searching():
+            from rostertui.core.repair.repair import default_from
+
+            start = default_from(self.session.ws)  # today where the unit is, as the CLI
+            self.push_screen(RepairScreen(self.solve_settings, start))
+
+    def action_versions(self) -> None:
+        if isinstance(self.screen, VersionsScreen):
+            return
+
+        async def compare(version: int | None) -> None:
+            if version is not None:
+                await self.switch_mode("roster")
+                screen = self.screen
+                if isinstance(screen, RosterScreen):
+                    screen.show_diff(True, version)
+
+        self.push_screen(VersionsScreen(self.compare_to), compare)
+
+    async def action_diff(self) -> None:
+        await self.switch_mode("roster")
+        screen = self.screen
+        if isinstance(screen, RosterScreen):
+            screen.action_diff()
 
     def action_save(self) -> None:
         try:
-            path = self.session.save()
+            self.session.save()
         except OSError as exc:
-            self.push_screen(ErrorDialog("Not saved", f"roster.toml could not be written: {exc}"))
+            self.push_screen(ErrorDialog("Not saved", f"the files could not be written: {exc}"))
             return
-        self.notify(f"saved {path}", timeout=4)
+        self.notify("saved " + " and ".join(str(p) for p in self.session.wrote), timeout=4)
         self.revised()
 
     def action_undo(self) -> None:
@@ -115,8 +160,8 @@ class RosterApp(App[int]):
         if not session.dirty:
             self.exit(0)
             return
-        changes = len(changed_cells(session.saved, session.roster))
-        changes += int(session.saved.lock != session.roster.lock)
+        changes = session.unsaved_changes()
+        files = "roster.toml and requests.toml" if session.requests_dirty else "roster.toml"
 
         def chosen(choice: str | None) -> None:
             if choice == "save":
@@ -127,7 +172,7 @@ class RosterApp(App[int]):
                 self.exit(0)
 
         if not isinstance(self.screen, ConfirmQuit):
-            self.push_screen(ConfirmQuit(changes), chosen)
+            self.push_screen(ConfirmQuit(changes, files), chosen)
 
     # -- messages from the screens ----------------------------------------------------------
     @on(GotoCell)

@@ -4,7 +4,8 @@ line), and only then write the files atomically. Pure: no textual.
 
 Removing a person also removes their row and locks from roster.toml on disk (the
 saved roster, not the unsaved hand edits), since the loader rejects a roster row of
-someone unknown. Hand edits not yet saved carry over to the new session.
+someone unknown. Hand edits not yet saved carry over to the new session, and so do
+unsaved absences (requests.toml) when the editor changed another file.
 """
 
 from __future__ import annotations
@@ -19,8 +20,10 @@ from pydantic import BaseModel
 from rostertui.core.io.atomic import write_atomic
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
+from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.staff import Staff
-from rostertui.tui.state import Session, keep_people
+from rostertui.tui.rosters import keep_people
+from rostertui.tui.state import Session
 
 
 def workspace_files(folder: Path, include: list[str]) -> list[tuple[Path, str]]:
@@ -63,4 +66,10 @@ def apply(session: Session, changed: list[BaseModel],
     if saved is not None and saved != session.saved:
         save(saved, folder)
     ws = load_workspace(folder)
-    return Session(ws, roster=keep_people(session.roster, ids))
+    requests = None
+    if session.requests_dirty and not any(isinstance(m, RequestsFile) for m in changed):
+        keep = set(ids)
+        requests = session.requests.model_copy(update={
+            "leave": [x for x in session.requests.leave if x.person in keep],
+            "request": [x for x in session.requests.request if x.person in keep]})
+    return Session(ws, roster=keep_people(session.roster, ids), requests=requests)

@@ -3,22 +3,32 @@
 Pure Python (no textual import), so every editing rule is unit-tested without a
 terminal. A roster is treated as immutable: each change builds a new `Roster`
 and pushes (before, after) on the undo stack, so undo, redo and "unsaved" are
-plain comparisons. The checker and the statistics run after every change (a
-few milliseconds for 100 people x 31 days).
+plain comparisons. The requests file is held the same way: an absence adds leave
+and clears shifts in one step, so a step records both files, and undo restores both
+exactly. The session's workspace always carries the current requests, so the check,
+the statistics and a solve see the leave. The checker and the statistics run after
+every change (a few milliseconds for 100 people x 31 days).
 """
 
 from __future__ import annotations
 
 import dataclasses
 from dataclasses import dataclass
+from datetime import date
 from pathlib import Path
 
 from rostertui.core.check import CheckResult, check_roster
+from rostertui.core.errors import EditError
 from rostertui.core.io.save import save
 from rostertui.core.models.common import OFF
+from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Lock, Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.stats import RosterStats, roster_stats
+from rostertui.tui.repairs import AbsencePlan, SwapPlan, plan_absence, plan_swap
+from rostertui.tui.rosters import changed_cells, normalised
+
+__all__ = ["Change", "EditRefused", "Session", "changed_cells"]
 
 UNDO_DEPTH = 500
 
@@ -29,63 +39,28 @@ class EditRefused(ValueError):
 
 @dataclass(frozen=True)
 class Change:
-    """One undoable step."""
+    """One undoable step: both files as they were before it and after it."""
 
     label: str
     before: Roster
     after: Roster
-
-
-@dataclass(frozen=True)
-class CellChange:
-    person: str
-    day: int
-    before: str
-    after: str
-
-
-def normalised(ws: Workspace, roster: Roster | None) -> Roster:
-    """One row of `days` codes per person, in staff order (a missing row is off)."""
-    n = ws.unit.days
-    given = roster.rows if roster is not None else {}
-    rows = {}
-    for pid in ws.person_ids:
-        row = list(given.get(pid, ()))[:n]
-        rows[pid] = row + [OFF] * (n - len(row))
-    if roster is None:
-        return Roster(start=ws.unit.start, days=n, rows=rows)
-    return roster.model_copy(update={"rows": rows, "start": ws.unit.start, "days": n})
-
-
-def keep_people(roster: Roster, ids: list[str]) -> Roster:
-    """The roster without the rows and locks of people no longer in staff.toml."""
-    keep = set(ids)
-    return roster.model_copy(update={
-        "rows": {pid: row for pid, row in roster.rows.items() if pid in keep},
-        "lock": [lk for lk in roster.lock if lk.person in keep],
-    })
-
-
-def changed_cells(before: Roster, after: Roster) -> list[CellChange]:
-    """Cells whose code differs, in row order then day order."""
-    out: list[CellChange] = []
-    for pid, new in after.rows.items():
-        old = before.rows.get(pid, [OFF] * len(new))
-        out += [CellChange(pid, i, a, b) for i, (a, b) in enumerate(zip(old, new, strict=False))
-                if a != b]
-    return out
+    requests_before: RequestsFile
+    requests_after: RequestsFile
 
 
 class Session:
     """The workspace being edited: current roster, its check and statistics, undo."""
 
-    def __init__(self, ws: Workspace, roster: Roster | None = None):
-        """`roster`: the roster being edited, when it is not the one on disk (after an
-        editor changed another file, the unsaved hand edits carry over)."""
-        self.ws = ws
+    def __init__(self, ws: Workspace, roster: Roster | None = None,
+                 requests: RequestsFile | None = None):
+        """`roster`, `requests`: the ones being edited, when they are not those on disk
+        (after an editor changed another file, the unsaved changes carry over)."""
         self.saved = normalised(ws, ws.roster)
+        self.saved_requests = ws.requests
+        self.ws = ws if requests is None else dataclasses.replace(ws, requests=requests)
         self.roster = normalised(ws, roster) if roster is not None else self.saved
         self.had_file = ws.roster is not None
+        self.wrote: list[Path] = []  # the files the last save wrote
         self._undo: list[Change] = []
         self._redo: list[Change] = []
         self.check: CheckResult
@@ -94,9 +69,27 @@ class Session:
 
     # -- reading ------------------------------------------------------------------------
     @property
+    def requests(self) -> RequestsFile:
+        return self.ws.requests
+
+    @property
     def dirty(self) -> bool:
-        """Unsaved changes: the roster differs from the one on disk."""
-        return self.roster != self.saved
+        """Unsaved changes: the roster or the requests differ from those on disk."""
+        return self.roster != self.saved or self.requests_dirty
+
+    @property
+    def requests_dirty(self) -> bool:
+        return self.requests != self.saved_requests
+
+    def unsaved_changes(self) -> int:
+        """Cells changed, plus one for changed locks and one per leave or request entry
+        added or removed since the files were read or saved."""
+        count = len(changed_cells(self.saved, self.roster))
+        count += int(self.saved.lock != self.roster.lock)
+        for new, old in ((self.requests.leave, self.saved_requests.leave),
+                         (self.requests.request, self.saved_requests.request)):
+            count += sum(1 for x in new if x not in old) + sum(1 for x in old if x not in new)
+        return count
 
     @property
     def can_undo(self) -> bool:
@@ -175,8 +168,33 @@ class Session:
                     f"{verb} {pid} day {day + 1}")
         return now
 
+    def preview_swap(self, pid: str, day: int, pid2: str, day2: int | None = None) -> SwapPlan:
+        """What exchanging the cells would change and do to the check; nothing applied.
+        Two people on two days exchange both days (four cells). Raises EditRefused."""
+        try:
+            return plan_swap(self.ws, self.roster, self.check, pid, day, pid2, day2)
+        except EditError as exc:
+            raise EditRefused(str(exc)) from None
+
+    def swap(self, pid: str, day: int, pid2: str, day2: int | None = None) -> Change | None:
+        """Exchange the cells, undoably; None when they hold the same codes."""
+        plan = self.preview_swap(pid, day, pid2, day2)
+        return self._apply(normalised(self.ws, plan.roster), plan.label) if plan.cells else None
+
+    def absent(self, pid: str, first: date, last: date | None = None, reason: str | None = None,
+               credit_hours: float | None = None) -> AbsencePlan:
+        """Record an absence as leave and clear the person's shifts on those days, in one
+        undoable step. Raises EditRefused (nothing changed) with the reason."""
+        try:
+            plan = plan_absence(self.ws, self.roster, self.check, pid, first, last, reason,
+                                credit_hours)
+        except EditError as exc:
+            raise EditRefused(str(exc)) from None
+        self._apply(normalised(self.ws, plan.roster), plan.label, plan.requests)
+        return plan
+
     def replace(self, roster: Roster, label: str) -> Change | None:
-        """Take a whole roster (a solve's result) as the current one, undoably."""
+        """Take a whole roster (a solve's or a repair's result) as the current one, undoably."""
         new = normalised(self.ws, roster)
         if new == self.roster:
             return None
@@ -187,7 +205,7 @@ class Session:
             return None
         change = self._undo.pop()
         self._redo.append(change)
-        self._set(change.before)
+        self._set(change.before, change.requests_before)
         return change
 
     def redo(self) -> Change | None:
@@ -195,13 +213,19 @@ class Session:
             return None
         change = self._redo.pop()
         self._undo.append(change)
-        self._set(change.after)
+        self._set(change.after, change.requests_after)
         return change
 
     def save(self) -> Path:
-        """Write roster.toml atomically; the session is then clean."""
+        """Write roster.toml, and requests.toml when it changed (comments kept), each
+        atomically; the session is then clean. Returns the roster's path."""
         assert self.ws.path is not None, "a loaded workspace always has a path"
+        self.wrote = []
+        if self.requests_dirty:
+            self.wrote.append(save(self.requests, self.ws.path))
+            self.saved_requests = self.requests
         path = save(self.roster, self.ws.path)
+        self.wrote.insert(0, path)
         self.saved = self.roster
         self.had_file = True
         return path
@@ -213,16 +237,19 @@ class Session:
         if not 0 <= day < self.ws.unit.days:
             raise EditRefused(f"day {day + 1} is outside the period")
 
-    def _apply(self, roster: Roster, label: str) -> Change:
-        change = Change(label, self.roster, roster)
+    def _apply(self, roster: Roster, label: str, requests: RequestsFile | None = None) -> Change:
+        requests = self.requests if requests is None else requests
+        change = Change(label, self.roster, roster, self.requests, requests)
         self._undo.append(change)
         del self._undo[:-UNDO_DEPTH]
         self._redo.clear()
-        self._set(roster)
+        self._set(roster, requests)
         return change
 
-    def _set(self, roster: Roster) -> None:
+    def _set(self, roster: Roster, requests: RequestsFile) -> None:
         self.roster = roster
+        if requests is not self.ws.requests:  # leave counts: check and solve must see it
+            self.ws = dataclasses.replace(self.ws, requests=requests)
         self._evaluate()
 
     def _evaluate(self) -> None:

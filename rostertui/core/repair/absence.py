@@ -9,6 +9,8 @@ from __future__ import annotations
 from dataclasses import dataclass
 from datetime import date
 
+from pydantic import ValidationError
+
 from rostertui.core.errors import EditError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.requests import Leave, RequestsFile
@@ -36,9 +38,14 @@ def record_absence(ws: Workspace, person: str, first: date, last: date | None = 
     unit = ws.unit
     if last < unit.start or first > unit.end:
         raise EditError(f"{first} to {last} lies outside the period {unit.start} to {unit.end}")
-    leave = Leave.model_validate({"person": person, "from": first,
-                                  "to": last if last != first else None,
-                                  "reason": reason, "credit_hours": credit_hours})
+    try:
+        leave = Leave.model_validate({"person": person, "from": first,
+                                      "to": last if last != first else None,
+                                      "reason": reason, "credit_hours": credit_hours})
+    except ValidationError as exc:
+        why = "; ".join(f"leave.{'.'.join(map(str, e['loc']))}: {e['msg']}"
+                        for e in exc.errors())
+        raise EditError(f"requests.toml: {why}") from None
     requests = ws.requests.model_copy(update={"leave": [*ws.requests.leave, leave]})
     roster = ws.roster
     if roster is None:

@@ -12,7 +12,8 @@ from __future__ import annotations
 import dataclasses
 import threading
 from dataclasses import dataclass
-from datetime import date
+from datetime import date, datetime
+from zoneinfo import ZoneInfo
 
 from rostertui.core.check import CheckResult, Violation, check_roster
 from rostertui.core.errors import EditError
@@ -38,9 +39,16 @@ class RepairOutcome:
         return self.outcome.check
 
 
-def default_from(ws: Workspace, today: date) -> date:
-    """Today when it lies in the period, else the period's first day."""
+def default_from(ws: Workspace, today: date | None = None) -> date:
+    """Today (where the unit is, unless given) when it lies in the period, else the
+    period's first day."""
+    today = today or today_in(ws)
     return today if ws.unit.in_period(today) else ws.unit.start
+
+
+def today_in(ws: Workspace) -> date:
+    """Today's date in the unit's timezone."""
+    return datetime.now(ZoneInfo(ws.unit.timezone)).date()
 
 
 def repair(ws: Workspace, start_from: date, options: SolveOptions | None = None,

@@ -43,23 +43,24 @@ class Built:
     keep: Keep | None = None
     changes: list[Lit] = field(default_factory=list)  # repair: one per changed cell
     gaps: list[tuple[int, int, cp_model.IntVar | int]] = field(default_factory=list)
+    items: Items | None = None  # explain: the switch of every hard item
 
     def change_cost(self, changes: int) -> int:
         return self.keep.weight * changes if self.keep is not None else 0
 
 
-def build_model(ws: Workspace, keep: Keep | None = None, items: Items | None = None,
+def build_model(ws: Workspace, keep: Keep | None = None, explain: bool = False,
                 gap_weight: int | None = None) -> Built:
     """The model of `ws`.
 
     `keep` (repair): a cost per cell changed from a reference roster, and the first
-    `keep.frozen` days fixed. `items` (explain): every hard item gets its own switch
-    in `items` and soft rules are left out. `gap_weight`: cover minimums become
-    penalties of that weight per person short (`Built.gaps`).
+    `keep.frozen` days fixed. `explain`: every hard item gets its own switch
+    (`Built.items`); soft rules and the objective are left out. `gap_weight`: cover
+    minimums become penalties of that weight per person short (`Built.gaps`).
     """
     model = cp_model.CpModel()
-    cells = Cells(ws, model, frozen=keep.frozen if keep is not None else 0,
-                  relaxed=items is not None)
+    cells = Cells(ws, model, frozen=keep.frozen if keep is not None else 0, relaxed=explain)
+    items = Items(model) if explain else None
     b = Build(model, cells)
     if cells.lock_conflicts:  # a locked shift the cell cannot hold: no roster keeps it
         model.add_bool_or([])
@@ -89,7 +90,7 @@ def build_model(ws: Workspace, keep: Keep | None = None, items: Items | None = N
         model.minimize(b.objective() + keep.weight * sum(changes))
     elif items is None:
         model.minimize(b.objective())
-    return Built(model, cells, b, keep, changes, gaps)
+    return Built(model, cells, b, keep, changes, gaps, items)
 
 
 def _cover_switch(ws: Workspace, cells: Cells, items: Items) -> CoverSwitch:

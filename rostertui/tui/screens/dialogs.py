@@ -21,15 +21,15 @@ class ConfirmQuit(ModalScreen[str | None]):
         Binding("escape,c", "choose(None)", "Cancel"),
     ]
 
-    def __init__(self, changes: int) -> None:
+    def __init__(self, changes: int, files: str = "roster.toml") -> None:
         super().__init__()
-        self.changes = changes
+        self.changes, self.files = changes, files
 
     def compose(self) -> ComposeResult:
         steps = f"{self.changes} change{'s' if self.changes != 1 else ''}"
         with Vertical(classes="dialog"):
             yield Label("Unsaved changes", classes="title")
-            yield Static(f"The roster has {steps} not yet saved to roster.toml.")
+            yield Static(f"The roster has {steps} not yet saved to {self.files}.")
             with Horizontal(classes="buttons"):
                 yield Button("Save and quit (s)", id="save", variant="primary")
                 yield Button("Quit without saving (d)", id="discard", variant="error")

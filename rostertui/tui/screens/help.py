@@ -36,8 +36,8 @@ def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]
         for key, what in extra:
             table.add_row(key, what)
         for b in bindings:
-            if isinstance(b, Binding) and b.description:
-                table.add_row(keys_text(b), b.description)
+            if isinstance(b, Binding) and b.description:  # the tooltip says more, if any
+                table.add_row(keys_text(b), b.tooltip or b.description)
         table.add_row("", "")
     return table
 
@@ -49,10 +49,14 @@ class HelpScreen(ModalScreen[None]):
 
     def compose(self) -> ComposeResult:
         from rostertui.tui.app import RosterApp
+        from rostertui.tui.screens.changes import AbsenceDialog, SwapDialog
         from rostertui.tui.screens.dialogs import ConfirmQuit
         from rostertui.tui.screens.editors import EditorsScreen
         from rostertui.tui.screens.fairness import FairnessScreen
+        from rostertui.tui.screens.repair import RepairScreen
+        from rostertui.tui.screens.roster import RosterScreen
         from rostertui.tui.screens.solve import SolveScreen
+        from rostertui.tui.screens.versions import VersionsScreen
         from rostertui.tui.screens.violations import ViolationsScreen
         from rostertui.tui.widgets.grid import RosterGrid
         from rostertui.tui.widgets.list_editor import ListEditor
@@ -62,7 +66,7 @@ class HelpScreen(ModalScreen[None]):
         codes = ", ".join(session.codes)
         sections = [
             ("Everywhere", RosterApp.BINDINGS, [("ctrl+p", "command palette")]),
-            ("Roster grid", RosterGrid.BINDINGS, [
+            ("Roster grid", RosterGrid.BINDINGS + RosterScreen.BINDINGS, [
                 ("mouse", "a click moves the cursor to the cell"),
                 ("a shift code", f"type it into the cell ({codes}); a code that is not "
                                  "the start of another is set at once, else press Enter"),
@@ -72,6 +76,11 @@ class HelpScreen(ModalScreen[None]):
              [("Tab", "move between the filters and the list")]),
             ("Fairness (F4)", FairnessScreen.BINDINGS, []),
             ("Solve (F5)", SolveScreen.BINDINGS, []),
+            ("Repair (F8): as Solve, from a date on", RepairScreen.BINDINGS, []),
+            ("Published versions (F9)", VersionsScreen.BINDINGS, []),
+            ("Swap preview (ctrl+x twice in the grid)", SwapDialog.BINDINGS, []),
+            ("Absence (ctrl+a in the grid)", AbsenceDialog.BINDINGS,
+             [("Enter", "record it (Tab from field to field)")]),
             ("Editors (F6): people, leave, requests, shifts, cover", EditorsScreen.BINDINGS
              + ListEditor.BINDINGS, [("Enter", "on a row: into the form; in the form: save"),
                                      ("Tab", "from field to field")]),
@@ -101,6 +110,9 @@ class HelpScreen(ModalScreen[None]):
             (" ~ ", "#b9a3e3 on #33284a", "leave (hard: no shift that day)"),
             ("*", "bold #7fd98a", "a request, granted (red: not granted)"),
             ("#", "bold #7ec8ff", "a locked cell: a solve keeps it; edits need an unlock"),
+            (" E ", "underline on #12545e", "diff mode (ctrl+d): changed since the version "
+                                            "compared with"),
+            (" E ", "bold on #3d6fb5", "the cell marked for a swap (ctrl+x)"),
             (" E ", "on #7a1f2b", "a cell in a hard violation"),
             (" E ", "on #5a4514", "a cell in a soft violation (a penalty)"),
             ("Sa", "#9fc3e0 on #223140", "weekend column"),

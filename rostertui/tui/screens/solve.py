@@ -5,21 +5,27 @@ which posts at most one `SolveProgressed` at a time (and a newer one replaces a
 queued older one), so the UI never floods. A timer ticks the elapsed time between
 solutions. Escape stops the search and keeps the best roster found so far.
 The solved roster becomes the grid's roster, unsaved (ctrl+s saves, ctrl+z undoes).
+
+`SearchScreen` is that machinery; `SolveScreen` here and `RepairScreen`
+(repair.py) say what to ask, what to run and what to show at the end.
 """
 
 from __future__ import annotations
 
 import threading
 import time
+from collections.abc import Iterable
 from dataclasses import dataclass
+from typing import Any
 
 from rich.text import Text
-from textual import on, work
+from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
 from textual.reactive import reactive
 from textual.screen import ModalScreen
+from textual.widget import Widget
 from textual.widgets import Button, Input, Label, Sparkline, Static
 from textual.worker import Worker, WorkerState
 
@@ -34,7 +40,8 @@ class SolveSettings:
     seed: int = 0
 
 
-def progress_text(elapsed: float, penalty: int | None, bound: int | None) -> Text:
+def progress_text(elapsed: float, penalty: int | None, bound: int | None,
+                  changes: int | None = None) -> Text:
     text = Text.assemble(("elapsed ", "#8d99a6"), (f"{elapsed:6.1f} s", "bold"))
     if penalty is None:
         text.append("   searching for a first roster…", style="#f4b942")
@@ -48,10 +55,15 @@ def progress_text(elapsed: float, penalty: int | None, bound: int | None) -> Tex
         gap = 0.0 if penalty == 0 else max(0.0, (penalty - bound) / abs(penalty))
         text.append("   gap ", style="#8d99a6")
         text.append(f"{gap:.1%}", style="bold")
+    if changes is not None and penalty is not None:
+        text.append("   cells changed ", style="#8d99a6")
+        text.append(f"{changes}", style="bold #45b5c9")
     return text
 
 
-class SolveScreen(ModalScreen[None]):
+class SearchScreen(ModalScreen[None]):
+    """Settings, a search in a thread worker with live progress, then the result."""
+
     CSS_PATH = "solve.tcss"
 
     BINDINGS = [
@@ -59,6 +71,9 @@ class SolveScreen(ModalScreen[None]):
         Binding("enter", "start_or_close", "Start / close", show=False),
         Binding("f1", "app.help", "Help", show=False),
     ]
+
+    WORK_NAME = "search"
+    HINTS = {"ready": "", "running": "", "done": "", "failed": "Enter or Esc closes"}
 
     phase = reactive("ready")  # ready | running | done | failed
 
@@ -70,6 +85,7 @@ class SolveScreen(ModalScreen[None]):
         self.started = 0.0
         self.last_penalty: int | None = None
         self.last_bound: int | None = None
+        self.last_changes: int | None = None
         self.penalties: list[float] = []
         self.summary = ""
 
@@ -77,11 +93,39 @@ class SolveScreen(ModalScreen[None]):
     def session(self) -> Session:
         return self.app.session  # type: ignore[attr-defined]
 
+    # -- what a subclass says -----------------------------------------------------------------
+    def heading(self) -> str:
+        raise NotImplementedError
+
+    def form(self) -> Iterable[Widget]:
+        """Fields before the solver's own (time limit, workers, seed)."""
+        return ()
+
+    def results(self) -> Iterable[Widget]:
+        """Widgets under the summary (shown when done)."""
+        return ()
+
+    def end_buttons(self) -> Iterable[Widget]:
+        yield Button("Close", id="close")
+
+    def read_form(self) -> bool:
+        """Read the subclass's fields; False (and a message in #summary) when wrong."""
+        return True
+
+    def search(self, session: Session, settings: SolveSettings) -> Any:
+        """Runs in the worker thread: the search, with `self.relay` and `self.cancel`."""
+        raise NotImplementedError
+
+    def finished(self, result: Any) -> None:
+        raise NotImplementedError
+
+    # -- layout -------------------------------------------------------------------------------
     def compose(self) -> ComposeResult:
         s = self.settings
         with Vertical(id="panel"):
-            yield Label(f"Solve {self.session.ws.unit.name}", id="title")
+            yield Label(self.heading(), id="title")
             with Horizontal(id="form"):
+                yield from self.form()
                 yield Label("time limit (s)")
                 yield Input(f"{s.time_limit:g}", type="number", id="time-limit")
                 yield Label("workers (0 = all)")
@@ -91,10 +135,11 @@ class SolveScreen(ModalScreen[None]):
             yield Static("", id="progress")
             yield Sparkline([], id="spark")
             yield Static("", id="summary")
+            yield from self.results()
             with Horizontal(id="buttons"):
                 yield Button("Start", id="start", variant="primary")
                 yield Button("Stop, keep the best", id="stop", variant="warning")
-                yield Button("Close", id="close")
+                yield from self.end_buttons()
             yield Static("", id="hint")
 
     def on_mount(self) -> None:
@@ -105,14 +150,13 @@ class SolveScreen(ModalScreen[None]):
         self.set_class(phase == "ready", "-ready")
         self.set_class(phase == "running", "-running")
         self.set_class(phase in ("done", "failed"), "-done")
-        hints = {
-            "ready": "Enter starts · Esc closes · the current grid (with its locks) is the "
-                     "warm start",
-            "running": "Esc stops the search and keeps the best roster so far",
-            "done": "Enter or Esc closes · ctrl+s saves · ctrl+z gives back the old roster",
-            "failed": "Enter or Esc closes",
-        }
-        self.query_one("#hint", Static).update(hints[phase])
+        self.hint(self.HINTS[phase])
+
+    def hint(self, text: str) -> None:
+        self.query_one("#hint", Static).update(Text(text))
+
+    def say(self, text: str | Text) -> None:
+        self.query_one("#summary", Static).update(text)
 
     # -- starting -----------------------------------------------------------------------------
     def _read_settings(self) -> SolveSettings | None:
@@ -121,11 +165,10 @@ class SolveScreen(ModalScreen[None]):
             workers = int(self.query_one("#workers", Input).value or 0)
             seed = int(self.query_one("#seed", Input).value or 0)
         except ValueError:
-            self.query_one("#summary", Static).update("time limit, workers and seed are numbers")
+            self.say("time limit, workers and seed are numbers")
             return None
         if limit <= 0 or workers < 0:
-            self.query_one("#summary", Static).update(
-                "the time limit must be above 0 and workers 0 or more")
+            self.say("the time limit must be above 0 and workers 0 or more")
             return None
         return SolveSettings(limit, workers, seed)
 
@@ -140,39 +183,32 @@ class SolveScreen(ModalScreen[None]):
     def start(self) -> None:
         if self.phase != "ready":
             return
+        self.say("")
         settings = self._read_settings()
-        if settings is None:
+        if settings is None or not self.read_form():
             return
         self.settings = settings
         self.app.solve_settings = settings  # type: ignore[attr-defined]
-        self.query_one("#summary", Static).update("")
         self.phase = "running"
         self.started = time.monotonic()
         self.set_interval(0.25, self._tick, name="solve-clock")
         self.query_one("#stop", Button).focus()
-        self.run_solve(self.session, settings)
-
-    @work(thread=True, exclusive=True, group="solve", exit_on_error=False)
-    def run_solve(self, session: Session, settings: SolveSettings):
-        from rostertui.core.solver import SolveOptions, solve
-
-        options = SolveOptions(time_limit=settings.time_limit, workers=settings.workers,
-                               seed=settings.seed)
-        return solve(session.workspace_for_solve(), options, on_progress=self.relay,
-                     cancel=self.cancel)
+        session = self.session
+        self.run_worker(lambda: self.search(session, settings), name=self.WORK_NAME,
+                        group="solve", thread=True, exclusive=True, exit_on_error=False)
 
     # -- progress -----------------------------------------------------------------------------
     def _tick(self) -> None:
         if self.phase == "running":
             elapsed = time.monotonic() - self.started
             self.query_one("#progress", Static).update(
-                progress_text(elapsed, self.last_penalty, self.last_bound))
+                progress_text(elapsed, self.last_penalty, self.last_bound, self.last_changes))
 
     @on(SolveProgressed)
     def _progressed(self, event: SolveProgressed) -> None:
         event.stop()
         p = self.relay.take() or event.progress
-        self.last_penalty, self.last_bound = p.penalty, p.bound
+        self.last_penalty, self.last_bound, self.last_changes = p.penalty, p.bound, p.changes
         if p.penalty is not None and (not self.penalties or self.penalties[-1] != p.penalty):
             self.penalties.append(float(p.penalty))
             self.query_one(Sparkline).data = list(self.penalties[-200:])
@@ -181,7 +217,7 @@ class SolveScreen(ModalScreen[None]):
     def action_stop_or_close(self) -> None:
         if self.phase == "running":
             self.cancel.set()
-            self.query_one("#hint", Static).update("stopping: keeping the best roster so far…")
+            self.hint("stopping: keeping the best roster so far…")
         else:
             self.dismiss()
 
@@ -199,25 +235,53 @@ class SolveScreen(ModalScreen[None]):
         if event.worker.group != "solve":
             return
         if event.state == WorkerState.SUCCESS:
-            self._finished(event.worker.result)
+            self.phase = "done"
+            self.finished(event.worker.result)
         elif event.state in (WorkerState.ERROR, WorkerState.CANCELLED):
             self.phase = "failed"  # the app's one worker-failure handler shows the error
-            self.query_one("#summary", Static).update(
-                Text("The solve failed; the grid is unchanged.", style="bold #ff6b6b"))
+            self.say(Text(f"The {self.WORK_NAME} failed; the grid is unchanged.",
+                          style="bold #ff6b6b"))
 
-    def _finished(self, outcome) -> None:
+    def no_roster(self, status: str) -> None:
+        why = ("No roster keeps every hard rule: the rules, cover, leave and locks "
+               "contradict each other." if status == "infeasible" else
+               "No roster found in the time given (not proven impossible either); "
+               "try a longer time limit.")
+        self.summary = f"{why} The grid is unchanged."
+        self.say(Text(self.summary, style="bold #ff6b6b"))
+
+    def on_unmount(self) -> None:
+        self.cancel.set()  # a search still running stops with the screen
+
+
+class SolveScreen(SearchScreen):
+    WORK_NAME = "solve"
+    HINTS = {
+        "ready": "Enter starts · Esc closes · the current grid (with its locks) is the "
+                 "warm start",
+        "running": "Esc stops the search and keeps the best roster so far",
+        "done": "Enter or Esc closes · ctrl+s saves · ctrl+z gives back the old roster",
+        "failed": "Enter or Esc closes",
+    }
+
+    def heading(self) -> str:
+        return f"Solve {self.session.ws.unit.name}"
+
+    def search(self, session: Session, settings: SolveSettings):
+        from rostertui.core.solver import SolveOptions, solve
+
+        options = SolveOptions(time_limit=settings.time_limit, workers=settings.workers,
+                               seed=settings.seed)
+        return solve(session.workspace_for_solve(), options, on_progress=self.relay,
+                     cancel=self.cancel)
+
+    def finished(self, outcome) -> None:
         before, before_check = self.session.roster, self.session.check
-        self.phase = "done"
         self.last_penalty, self.last_bound = outcome.objective, outcome.bound
         self.query_one("#progress", Static).update(
             progress_text(outcome.seconds, outcome.objective, outcome.bound))
         if outcome.roster is None:
-            why = ("No roster keeps every hard rule: the rules, cover, leave and locks "
-                   "contradict each other." if outcome.status == "infeasible" else
-                   "No roster found in the time given (not proven impossible either); "
-                   "try a longer time limit.")
-            self.summary = f"{why} The grid is unchanged."
-            self.query_one("#summary", Static).update(Text(self.summary, style="bold #ff6b6b"))
+            self.no_roster(outcome.status)
             return
         check = outcome.check
         changed = changed_cells(before, outcome.roster)
@@ -227,9 +291,6 @@ class SolveScreen(ModalScreen[None]):
             f"{before_check.penalty} -> {check.penalty}; hard violations "
             f"{before_check.hard_violations} -> {check.hard_violations}; "
             f"{outcome.seconds:.1f} s. The new roster is in the grid, not saved yet.")
-        self.query_one("#summary", Static).update(Text(self.summary, style="bold"))
+        self.say(Text(self.summary, style="bold"))
         self.post_message(RosterSolved(outcome))
         self.query_one("#close", Button).focus()
-
-    def on_unmount(self) -> None:
-        self.cancel.set()  # a solve still running stops with the screen

@@ -57,6 +57,8 @@ class RosterGrid(ScrollView, can_focus=True):
     RosterGrid > .grid--stat-bad { color: #ff6b6b; text-style: bold; }
     RosterGrid > .grid--stat-warn { color: #e0a030; }
     RosterGrid > .grid--stat-ok { color: #9fd39f; }
+    RosterGrid > .grid--changed { background: #12545e; text-style: underline; }
+    RosterGrid > .grid--mark { background: #3d6fb5; text-style: bold; }
     """
 
     BINDINGS = [
@@ -106,6 +108,8 @@ class RosterGrid(ScrollView, can_focus=True):
         self.row_index = 0  # index into self.rows (never the separator)
         self.day = 0
         self.typed = ""
+        self.changed: dict[tuple[str, int], str] | None = None  # diff mode: published codes
+        self.mark: tuple[str, int] | None = None  # the cell marked for a swap
         self._painter: Painter | None = None
 
     # -- data ---------------------------------------------------------------------------------
@@ -151,8 +155,17 @@ class RosterGrid(ScrollView, can_focus=True):
         if self._painter is None:
             styles = {name: self.get_component_rich_style(f"grid--{name}", partial=True)
                       for name in STYLE_NAMES}
-            self._painter = Painter(self.session, self.view, self.grid_layout, styles, self.colours)
+            self._painter = Painter(self.session, self.view, self.grid_layout, styles, self.colours,
+                                    self.changed, self.mark)
         return self._painter
+
+    def highlight(self, changed: dict[tuple[str, int], str] | None,
+                  mark: tuple[str, int] | None) -> None:
+        """Diff mode's changed cells (None: diff mode off) and the swap mark; repaint."""
+        if (changed, mark) != (self.changed, self.mark):
+            self.changed, self.mark = changed, mark
+            self._painter = None
+            self.refresh()
 
     def notify_style_update(self) -> None:
         super().notify_style_update()

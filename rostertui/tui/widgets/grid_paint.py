@@ -2,9 +2,10 @@
 
 A line is two strips: the fixed part (flag, name, skills) that never scrolls, and
 the canvas (days, then the statistics) that the widget crops to its scroll offset.
-Backgrounds carry state (cursor > hard > soft > leave > holiday > weekend), the
-code's colour says which shift it is (palette.py); a `*` before the code marks a
-request (green granted, red not), a `#` after it a lock, `~` a day of leave.
+Backgrounds carry state (cursor > swap mark > changed since the version compared
+against, in diff mode > hard > soft > leave > holiday > weekend), the code's colour
+says which shift it is (palette.py); a `*` before the code marks a request (green
+granted, red not), a `#` after it a lock, `~` a day of leave.
 """
 
 from __future__ import annotations
@@ -27,6 +28,7 @@ STYLE_NAMES = (
     "skills", "flag-hard", "flag-soft", "off", "leave", "leave-mark", "weekend", "holiday", "hard",
     "soft", "cursor", "cursor-hard", "cursor-soft", "req-ok", "req-denied", "lock", "sep",
     "cover-label", "cover-ok", "cover-short", "cover-under", "stat-bad", "stat-warn", "stat-ok",
+    "changed", "mark",
 )
 
 
@@ -88,10 +90,16 @@ class Painter:
     """Paints the lines of one view of the session with the widget's styles."""
 
     def __init__(self, session: Session, view: GridView, layout: Layout,
-                 styles: dict[str, Style], colours: dict[str, str]):
+                 styles: dict[str, Style], colours: dict[str, str],
+                 changed: dict[tuple[str, int], str] | None = None,
+                 mark: tuple[str, int] | None = None):
+        """`changed`: in diff mode, the cells that differ from the version compared
+        against (with its code); `mark`: the cell marked for a swap."""
         self.session, self.view, self.layout = session, view, layout
         self.s = styles
         self.colours = {code: Style(color=c, bold=True) for code, c in colours.items()}
+        self.changed = changed or {}
+        self.mark = mark
 
     def _column_bg(self, d: DayColumn) -> Style:
         if d.holiday:
@@ -172,8 +180,9 @@ class Painter:
         key = (pid, d.index)
         leave = key in view.leave
         sev = view.severity(pid, d.index)
-        bg = s["cursor"] if on_cursor else s[sev] if sev else (
-            s["leave"] if leave else self._column_bg(d))
+        bg = s["cursor"] if on_cursor else s["mark"] if key == self.mark else (
+            s["changed"] if key in self.changed else s[sev] if sev else (
+                s["leave"] if leave else self._column_bg(d)))
         if code == OFF:
             text, fg = ("~", s["leave-mark"]) if leave else ("·", s["off"])
         else:

@@ -62,12 +62,15 @@ class StatusLine(Static):
     """
 
     def show(self, session: Session, view: GridView, person: str | None, cover_row: int | None,
-             day: int, typed: str = "", note: str = "") -> None:
+             day: int, typed: str = "", note: str = "", extra: Text | None = None) -> None:
+        """`extra`: a line under the cell's (diff mode: the cell as published)."""
         lines: list[Text] = []
         if person is not None:
             lines.append(Text(cell_text(session, view, person, day), style="bold"))
         elif cover_row is not None:
             lines.append(Text(cover_text(view, cover_row, day), style="bold"))
+        if extra is not None:
+            lines.append(extra)
         if typed:
             codes = " ".join(session.codes)
             lines.append(Text(f"typing {typed}…  Enter sets it, Esc drops it  (shifts: {codes}"
