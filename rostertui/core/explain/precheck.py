@@ -142,27 +142,33 @@ def _short_reason(ws: Workspace, code: str, d: date, c: Cover, free: list[str],
 
 
 def _daily(ws: Workspace, av: Availability) -> list[Reason]:
-    """All of a date's minimums together against the people free that day."""
+    """All of a date's minimums together (for everyone, and per skill) against the
+    people free that day: one shift a day each."""
     out = []
-    need: dict[date, dict[str, int]] = defaultdict(dict)
+    need: dict[tuple[date, str | None], dict[str, int]] = defaultdict(dict)
     for c in ws.shifts.cover:
         if c.min:
             for i in cover_days_of(ws, c):
-                d = ws.unit.dates[i]
-                need[d][c.shift] = max(need[d].get(c.shift, 0), c.min)
-    for d, by_shift in sorted(need.items()):
+                by_shift = need[ws.unit.dates[i], c.skill]
+                by_shift[c.shift] = max(by_shift.get(c.shift, 0), c.min)
+    for (d, skill), by_shift in sorted(need.items(), key=lambda kv: (kv[0][0], kv[0][1] or "")):
+        if len(by_shift) < 2:
+            continue  # one shift alone is the per-entry check
         total = sum(by_shift.values())
-        free = [p.id for p in ws.staff.person if av.free_on(p.id, d)]
-        if len(free) >= total or len(by_shift) < 2:
+        pool = [p.id for p in ws.staff.person if skill is None or skill in p.skills]
+        free = [pid for pid in pool if av.free_on(pid, d)]
+        if len(free) >= total:
             continue
         each = ", ".join(f"{code} {n}" for code, n in by_shift.items())
-        away = [p.id for p in ws.staff.person if p.id not in free]
+        away = [pid for pid in pool if pid not in free]
+        with_skill = f" with skill {skill}" if skill else ""
         out.append(Reason(
-            f"On {words.day(d)} the cover minimums need {total} people at once ({each}), "
-            f"but only {len(free)} are free that day"
-            + (f"; {words.people(ws, away)} are away (leave, locks or not-available)"
-               if away else "") + ".",
-            ("cover",), tuple(away), (d,)))
+            f"On {words.day(d)} the cover minimums need {total} people{with_skill} at once "
+            f"({each}), but only {len(free)} {'is' if len(free) == 1 else 'are'} free that day"
+            + (f": {words.people(ws, free)}" if free else "")
+            + (f"; {words.people(ws, away)} {'is' if len(away) == 1 else 'are'} away "
+               "(leave, locks or not-available)" if away else "") + ".",
+            ("cover",), tuple(pool), (d,)))
     return out
 
 

@@ -13,17 +13,35 @@ from rostertui.core.solver.items import HardItem
 
 def conflict_reason(ws: Workspace, items: list[HardItem], minimal: bool) -> Reason:
     near = {d for it in items for d in it.dates}
-    parts: list[str] = []
     people: list[str] = []
-    for it in sorted(items, key=_order):
-        text, who = sentence(ws, it, near)
-        parts.append(text)
+    parts: list[str] = []
+    for kind in ("cover", "leave", "lock", "rule"):
+        chosen = sorted((it for it in items if it.kind == kind), key=_order)
+        if kind == "leave":
+            texts, who = _leave_clauses(ws, chosen)
+        else:
+            said = [sentence(ws, it, near) for it in chosen]
+            texts, who = [t for t, _ in said], [p for _, ps in said for p in ps]
+        parts += texts
         people += who
-    dates = sorted(near)
     rules = unique([it.rule or it.kind for it in items])
     head = "No roster can keep all of these at once: "
     tail = "" if minimal else " (the time ran out before this set was made as small as it can be)"
-    return Reason(head + "; ".join(parts) + "." + tail, rules, unique(people), tuple(dates))
+    return Reason(head + "; ".join(parts) + "." + tail, rules, unique(people),
+                  tuple(sorted(near)))
+
+
+def _leave_clauses(ws: Workspace, leave: list[HardItem]) -> tuple[list[str], list[str]]:
+    """One clause per leave span and reason: "a and b are on leave Sat 20 Mar"."""
+    groups: dict[str, list[str]] = {}
+    for it in leave:
+        assert it.leave is not None and it.person is not None
+        lv = ws.requests.leave[it.leave]
+        why = f" ({lv.reason})" if lv.reason else ""
+        groups.setdefault(f"{words.span(lv.from_, lv.last)}{why}", []).append(it.person)
+    texts = [f"{words.people(ws, pids)} {'is' if len(pids) == 1 else 'are'} on leave {when}"
+             for when, pids in groups.items()]
+    return texts, [p for pids in groups.values() for p in pids]
 
 
 def _order(it: HardItem) -> tuple[int, str, tuple[date, ...]]:
@@ -40,7 +58,7 @@ def sentence(ws: Workspace, it: HardItem, near: set[date]) -> tuple[str, list[st
         holders = [p.id for p in ws.staff.person
                    if (c.skill is None or c.skill in p.skills)
                    and set(shift.requires) <= set(p.skills)]
-        who = (f"{len(holders)} can work it: {words.people(ws, holders)}" if holders
+        who = (f"{len(holders)} qualified: {words.people(ws, holders)}" if holders
                else "nobody holds the skills it needs")
         return (f"{words.shift(ws, c.shift)} cover on {words.day(it.dates[0])} needs "
                 f"{words.cover_need(ws, c)} ({who})", holders)

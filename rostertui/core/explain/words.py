@@ -44,7 +44,8 @@ def cover_need(ws: Workspace, c: Cover) -> str:
         parts.append(f"at least {c.min}")
     if c.max is not None:
         parts.append(f"at most {c.max}")
-    who = "person" if (c.max or c.min or 0) == 1 and c.min == c.max else "people"
+    last = c.max if c.max is not None else c.min
+    who = "person" if last == 1 else "people"
     skill = f" with skill {c.skill}" if c.skill else ""
     return f"{' and '.join(parts)} {who}{skill}"
 

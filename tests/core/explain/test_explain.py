@@ -144,3 +144,20 @@ def test_no_time_means_undecided_not_wrong(tmp_path: Path, seconds: float) -> No
     ws = ws_of(tmp_path, rules=REST, cover='[[cover]]\nshift = "E"\nmin = 1\n')
     result = explain(ws, seconds)
     assert result.feasible or not result.decided
+
+
+def test_a_days_minimums_together_beyond_the_skilled_people_free(tmp_path: Path) -> None:
+    """E and L each need an rn on 3 Mar: each alone can be met by c, both cannot."""
+    cover = ('[[cover]]\nshift = "E"\nskill = "rn"\nmin = 1\ndates = [2027-03-03]\n'
+             '[[cover]]\nshift = "L"\nskill = "rn"\nmin = 1\ndates = [2027-03-03]\n')
+    ws = ws_of(tmp_path, cover=cover,
+               requests='[[leave]]\nperson = "a"\nfrom = 2027-03-03\n'
+                        '[[leave]]\nperson = "b"\nfrom = 2027-03-03\n')
+    pre = prechecks(ws)
+    assert len(pre) == 1 and pre[0].dates == (D[2],)
+    assert pre[0].message.startswith("On Wed 3 Mar the cover minimums need 2 people with "
+                                     "skill rn at once (E 1, L 1), but only 1 is free that day: c")
+    assert set(pre[0].people) == {"a", "b", "c"}
+    found = find_conflict(ws, 20)
+    assert sorted(it.kind for it in found.items) == ["cover", "cover", "leave", "leave"]
+    assert minimal(ws, found.items)
