@@ -27,6 +27,10 @@ include = ["eu-working-time"]   # rule presets shipped in rules/ (see the README
 # shift = "@night"
 # count = 3
 # weight = 50
+
+# What one changed cell costs when `rostertui repair` mends a published roster.
+# [repair]
+# change_weight = 1000
 """
 
 STAFF_TEMPLATE = """\
