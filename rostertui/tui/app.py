@@ -7,18 +7,21 @@ app bumps the reactive `revision`, and every screen watching it repaints.
 from __future__ import annotations
 
 from collections.abc import Iterable
+from pathlib import Path
 
 from textual import on
 from textual.app import App, SystemCommand
 from textual.binding import Binding
 from textual.reactive import reactive
-from textual.screen import Screen
+from textual.screen import ModalScreen, Screen
 from textual.worker import Worker, WorkerState
 
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.messages import GotoCell, RosterSolved
 from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog
 from rostertui.tui.screens.editors import EditorsScreen
+from rostertui.tui.screens.explain import Explained, ExplainScreen
+from rostertui.tui.screens.export import ExportScreen
 from rostertui.tui.screens.fairness import FairnessScreen
 from rostertui.tui.screens.help import HelpScreen
 from rostertui.tui.screens.repair import RepairScreen
@@ -43,8 +46,14 @@ class RosterApp(App[int]):
         Binding("f4", "switch_mode('fairness')", "Fairness", key_display="F4"),
         Binding("f5", "solve", "Solve", key_display="F5"),
         Binding("f6", "switch_mode('edit')", "Edit", key_display="F6"),
+        Binding("f7", "export", "Export", key_display="F7", tooltip="export the roster "
+                "as shown (unsaved edits included): CSV, calendars, a printable page, the "
+                "audit report"),
         Binding("f8", "repair", "Repair", key_display="F8"),
         Binding("f9", "versions", "Versions", key_display="F9"),
+        Binding("f10", "explain", "Why", key_display="F10", tooltip="why no roster keeps "
+                "every hard rule: which rules, people and dates collide, in plain words; "
+                "when one can, what each denied request would cost"),
         Binding("ctrl+s", "save", "Save"),
         Binding("ctrl+z", "undo", "Undo"),
         Binding("ctrl+y", "redo", "Redo", show=False),
@@ -58,6 +67,7 @@ class RosterApp(App[int]):
         self.session = Session(ws)
         self.solve_settings = solve_settings or SolveSettings()
         self.compare_to: int | None = None  # the version diff mode compares with (None: last)
+        self.explained: Explained | None = None  # the last explanation (F10), with its revision
         self.title = f"rostertui · {ws.unit.name}"
 
     def on_mount(self) -> None:
@@ -85,6 +95,10 @@ class RosterApp(App[int]):
         yield SystemCommand("Solve", "Build a roster with the solver (F5)", self.action_solve)
         yield SystemCommand("Repair", "Solve again changing as few cells as possible (F8)",
                             self.action_repair)
+        yield SystemCommand("Why", "Explain why no roster keeps every hard rule, or price "
+                            "the denied requests (F10)", self.action_explain)
+        yield SystemCommand("Export", "Write the roster as CSV, calendars, a printable page "
+                            "or the audit report (F7)", self.action_export)
         yield SystemCommand("Versions", "Published versions; publish the roster (F9)",
                             self.action_versions)
         yield SystemCommand("Diff", "Highlight the cells changed since the last published "
@@ -116,6 +130,36 @@ class RosterApp(App[int]):
 
             start = default_from(self.session.ws)  # today where the unit is, as the CLI
             self.push_screen(RepairScreen(self.solve_settings, start))
+
+    def dialog_open(self, what: str) -> bool:
+        """A dialog is on top: it closes first (Esc)."""
+        if isinstance(self.screen, ModalScreen):
+            self.notify(f"{what}: close the open dialog first (Esc)", timeout=3)
+            return True
+        return False
+
+    def action_explain(self) -> None:
+        if not self.dialog_open("Why"):
+            self.open_explanation()
+
+    def open_explanation(self) -> None:
+        settings = self.solve_settings
+        self.push_screen(ExplainScreen(settings.time_limit, settings.workers), self._explained)
+
+    def _explained(self, goto: GotoCell | None) -> None:
+        if goto is not None:
+            self.post_message(goto)
+
+    def action_export(self) -> None:
+        if not self.dialog_open("Export"):
+            self.push_screen(ExportScreen(self.session.workspace_for_solve()), self._exported)
+
+    def _exported(self, written: list[Path] | None) -> None:
+        if not written:
+            return
+        shown = (str(written[0]) if len(written) == 1
+                 else f"{len(written)} files in {written[0].parent}")
+        self.notify(f"exported {shown}", title="export", timeout=6)
 
     def action_versions(self) -> None:
         if isinstance(self.screen, VersionsScreen):

@@ -14,7 +14,8 @@ if TYPE_CHECKING:  # the solver (OR-Tools) is imported when the first solve star
 
 
 class GotoCell(Message):
-    """Show this person's cell on this day in the roster grid (from the violations list)."""
+    """Show this person's cell on this day in the roster grid (from the violations list or
+    the explanation); a day alone moves along the cursor's row."""
 
     def __init__(self, person: str | None, day: int | None, cover: tuple[str, str | None]
                  | None = None):
@@ -40,6 +41,18 @@ class SolveProgressed(Message):
 
     def can_replace(self, message: Message) -> bool:
         return isinstance(message, SolveProgressed)
+
+
+class ExplainProgressed(Message):
+    """What the explanation is doing now ("looking for hard items that cannot all hold").
+    A newer one replaces an older one still waiting in the queue."""
+
+    def __init__(self, text: str):
+        super().__init__()
+        self.text = text
+
+    def can_replace(self, message: Message) -> bool:
+        return isinstance(message, ExplainProgressed)
 
 
 class RosterSolved(Message):

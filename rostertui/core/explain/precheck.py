@@ -161,6 +161,8 @@ def _daily(ws: Workspace, av: Availability) -> list[Reason]:
             continue
         each = ", ".join(f"{code} {n}" for code, n in by_shift.items())
         away = [pid for pid in pool if pid not in free]
+        why = unique(["cover", *(av.why_not(pid, d, code) or "cover"
+                                 for pid in away for code in by_shift)])
         with_skill = f" with skill {skill}" if skill else ""
         out.append(Reason(
             f"On {words.day(d)} the cover minimums need {total} people{with_skill} at once "
@@ -168,7 +170,7 @@ def _daily(ws: Workspace, av: Availability) -> list[Reason]:
             + (f": {words.people(ws, free)}" if free else "")
             + (f"; {words.people(ws, away)} {'is' if len(away) == 1 else 'are'} away "
                "(leave, locks or not-available)" if away else "") + ".",
-            ("cover",), tuple(pool), (d,)))
+            why, tuple(pool), (d,)))
     return out
 
 

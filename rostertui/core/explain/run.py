@@ -52,7 +52,7 @@ def explain(ws: Workspace, time_limit: float = 60.0, workers: int = 0,
     if conflict.status == "unknown":
         return Explanation(False, False, [*early, Reason(
             f"Within {time_limit:g} s the solver neither found a roster nor proved that "
-            "none exists; try a longer --time-limit.")])
+            "none exists; try a longer time limit.")])
     reasons = list(early)
     if conflict.items:
         reasons.append(conflict_reason(ws, conflict.items, conflict.minimal))

@@ -41,7 +41,7 @@ class ExportOutcome:
 class ExportScreen(ModalScreen[list[Path] | None]):
     CSS_PATH = "export.tcss"
 
-    BINDINGS = [Binding("escape", "close", "Close")]
+    BINDINGS = [Binding("escape,f7", "close", "Close")]
 
     def __init__(self, ws: Workspace, fmt: str = "html") -> None:
         super().__init__()

@@ -52,6 +52,8 @@ class HelpScreen(ModalScreen[None]):
         from rostertui.tui.screens.changes import AbsenceDialog, SwapDialog
         from rostertui.tui.screens.dialogs import ConfirmQuit
         from rostertui.tui.screens.editors import EditorsScreen
+        from rostertui.tui.screens.explain import ExplainScreen
+        from rostertui.tui.screens.export import ExportScreen
         from rostertui.tui.screens.fairness import FairnessScreen
         from rostertui.tui.screens.repair import RepairScreen
         from rostertui.tui.screens.roster import RosterScreen
@@ -78,6 +80,14 @@ class HelpScreen(ModalScreen[None]):
             ("Solve (F5)", SolveScreen.BINDINGS, []),
             ("Repair (F8): as Solve, from a date on", RepairScreen.BINDINGS, []),
             ("Published versions (F9)", VersionsScreen.BINDINGS, []),
+            ("Export (F7)", ExportScreen.BINDINGS,
+             [("↑↓ space", "choose the format"), ("Enter", "in the path, or on Export: write "
+                                                  "the files")]),
+            ("Why (F10): why no roster keeps every hard rule", ExplainScreen.BINDINGS, [
+                ("↑↓", "choose a reason, or a denied request"),
+                ("Enter", "show its person and date in the grid (F10 again shows the "
+                          "explanation at once while the roster is unchanged)"),
+            ]),
             ("Swap preview (ctrl+x twice in the grid)", SwapDialog.BINDINGS, []),
             ("Absence (ctrl+a in the grid)", AbsenceDialog.BINDINGS,
              [("Enter", "record it (Tab from field to field)")]),

@@ -141,6 +141,8 @@ class RosterScreen(Screen):
             grid.goto(person, day)
         elif cover is not None:
             grid.goto_cover(*cover, day)
+        elif day != grid.day:
+            grid.move_to(grid.row_index, day)  # a date alone: that day on the cursor's row
         grid.focus()
 
     # -- swap -------------------------------------------------------------------------------

@@ -249,12 +249,20 @@ class SearchScreen(ModalScreen[None]):
                "try a longer time limit.")
         self.summary = f"{why} The grid is unchanged."
         self.say(Text(self.summary, style="bold #ff6b6b"))
+        self.query_one("#progress", Static).update(Text.assemble(  # not "searching…"
+            ("elapsed ", "#8d99a6"), (f"{time.monotonic() - self.started:6.1f} s", "bold"),
+            ("   no roster", "bold #ff6b6b")))
 
     def on_unmount(self) -> None:
         self.cancel.set()  # a search still running stops with the screen
 
 
 class SolveScreen(SearchScreen):
+    BINDINGS = [
+        *SearchScreen.BINDINGS,
+        Binding("f10", "why", "Why no roster (closes the solve)", show=False),
+    ]
+
     WORK_NAME = "solve"
     HINTS = {
         "ready": "Enter starts · Esc closes · the current grid (with its locks) is the "
@@ -266,6 +274,32 @@ class SolveScreen(SearchScreen):
 
     def heading(self) -> str:
         return f"Solve {self.session.ws.unit.name}"
+
+    def end_buttons(self) -> Iterable[Widget]:
+        yield Button("Close", id="close")
+        yield Button("Why? (F10)", id="why", variant="primary")
+
+    def on_mount(self) -> None:
+        super().on_mount()
+        self.query_one("#why", Button).display = False
+
+    def no_roster(self, status: str) -> None:
+        super().no_roster(status)
+        if status == "infeasible":
+            self.hint("F10 or Why? explains which rules, people and dates collide (the "
+                      "solve closes) · Esc closes")
+            why = self.query_one("#why", Button)
+            why.display = True
+            why.focus()
+
+    @on(Button.Pressed, "#why")
+    def action_why(self) -> None:
+        """Close the solve and explain (not while it runs: Esc stops it first)."""
+        if self.phase == "running":
+            self.notify("the solve is running: Esc stops it first", timeout=3)
+            return
+        self.dismiss()
+        self.app.open_explanation()  # type: ignore[attr-defined]
 
     def search(self, session: Session, settings: SolveSettings):
         from rostertui.core.solver import SolveOptions, solve
