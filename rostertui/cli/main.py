@@ -75,6 +75,9 @@ def main(argv: Sequence[str] | None = None) -> int:
         return fail_input(exc)
     except EditError as exc:
         return fail(f"{exc}; nothing written")
+    except OSError as exc:  # a folder not writable, a disk full: say which file, no trace
+        where = f"{exc.filename}: " if exc.filename else ""
+        return fail(f"{where}{exc.strerror or exc}; the files are as they were")
     except KeyboardInterrupt:
         print("interrupted; nothing written", file=sys.stderr)
         return EXIT_INPUT

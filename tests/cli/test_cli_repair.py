@@ -141,3 +141,11 @@ def test_repair_without_a_roster_and_diff_against_a_missing_version(
     run(capsys, "publish", str(clinic))
     code, _, err = run(capsys, "diff", str(clinic), "--against", "9")
     assert code == 2 and "published/009.toml" in err
+
+
+def test_a_file_system_error_is_a_message_and_exit_2(
+        clinic: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    (clinic / "published").write_text("not a folder\n")
+    code, out, err = run(capsys, "publish", str(clinic))
+    assert code == 2 and out == "" and "published" in err and "Traceback" not in err
+    assert (clinic / "published").read_text() == "not a folder\n"
