@@ -143,8 +143,10 @@ def print_explanation(ws: Workspace, time_limit: float, workers: int) -> None:
     """Why, on stderr (stdout may carry the JSON): `rostertui explain` without prices."""
     from rostertui.core.explain.run import explain
 
+    budget = min(60.0, max(10.0, time_limit))
+    print(f"Looking for why (at most {budget:g} s)...", file=sys.stderr, flush=True)
+    result = explain(ws, budget, workers, price_requests=False)
     print("Why:", file=sys.stderr)
-    result = explain(ws, min(60.0, max(10.0, time_limit)), workers, price_requests=False)
     for i, reason in enumerate(result.reasons, start=1):
         print(f"{i}. {reason.message}", file=sys.stderr)
     print("(rostertui explain WS --json gives the same as data.)", file=sys.stderr)
