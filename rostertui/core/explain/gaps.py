@@ -36,8 +36,8 @@ def cover_gaps(ws: Workspace, budget: float, workers: int = 0) -> tuple[str, lis
     for v in check_roster(ws, roster).violations:
         if v.kind == "cover" and v.hard and "at least" in v.message:
             shift = words.shift(ws, v.shift or "")
-            skill = f" ({v.skill})" if v.skill else ""
+            skill = f" with skill {v.skill}" if v.skill else ""
             out.append(Reason(
-                f"At best, {shift}{skill} cover on {words.day(v.dates[0])} stays "
-                f"{v.units} short: {v.message}.", ("cover",), (), v.dates))
+                f"At best, {shift} cover{skill} on {words.day(v.dates[0])} stays "
+                f"{v.units} short ({v.message}).", ("cover",), (), v.dates))
     return ("found" if code == cp_model.OPTIMAL else "unknown"), out
