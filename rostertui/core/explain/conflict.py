@@ -49,8 +49,12 @@ def find_conflict(ws: Workspace, budget: float = 30.0, workers: int = 0,
         return Conflict("unknown", [])
     index = items.by_index()
     core = [index[i] for i in solver.sufficient_assumptions_for_infeasibility() if i in index]
-    if not core:  # infeasible without any item: the background (skills, history) alone
-        return Conflict("infeasible", [], minimal=True)
+    if not core:
+        model.clear_assumptions()
+        alone = _infeasible(model, items, [], max(0.5, deadline - time.monotonic()), workers)
+        if alone:  # infeasible without any item: the background (skills, history) alone
+            return Conflict("infeasible", [], minimal=True)
+        core = list(items.switches)  # no core given: shrink from every item
     if on_progress:
         on_progress(f"{len(core)} items conflict; shrinking the set")
     kept, minimal = _shrink(built.model, items, core, deadline, workers, on_progress)
