@@ -87,6 +87,8 @@ def summary(ws: Workspace, result: RepairOutcome) -> str:
             lines.append(f"These breaches lie before {result.start_from} and may not be "
                          "touched; repair from an earlier --from or fix them by hand:")
             lines += ["  " + violation_line(v) for v in result.past]
+        else:
+            lines.append("rostertui explain says which rules, cover, leave and locks collide.")
         return "\n".join(lines)
     n = len(result.changed)
     lines.append(f"{n} cell{'s' if n != 1 else ''} changed:" if n else "No cell needed to change.")
