@@ -187,3 +187,27 @@ def test_f7_exports_the_roster_as_csv(clinic: Path, tmp_path: Path) -> None:
             assert any(f"exported {target}" in str(n.message) for n in app._notifications)
 
     run(go)
+
+
+def test_a_gap_reason_leads_to_the_cover_row(tmp_path: Path) -> None:
+    """The "stays short" reason names no person: Enter goes to the N·rn cover row."""
+    async def go() -> None:
+        app = RosterApp(load_workspace(night_short(tmp_path)), FAST)
+        async with app.run_test(size=(140, 44)) as pilot:
+            await pilot.press("f10")
+            screen = app.screen
+            assert isinstance(screen, ExplainScreen)
+            await until_explained(pilot, screen)
+            reasons = prompts(screen, "#reasons")
+            gap = next(i for i, r in enumerate(reasons) if "stays 1 short" in r)
+            options = screen.query_one("#reasons", OptionList)
+            options.focus()
+            options.highlighted = gap
+            await pilot.press("enter")
+            await pilot.pause()
+            grid = grid_of(app)
+            assert grid.person is None and grid.day == 2
+            cover = grid.view.cover[grid.cover_row]
+            assert (cover.shift, cover.skill) == ("N", "rn")
+
+    run(go)

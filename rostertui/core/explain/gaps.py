@@ -39,5 +39,6 @@ def cover_gaps(ws: Workspace, budget: float, workers: int = 0) -> tuple[str, lis
             skill = f" with skill {v.skill}" if v.skill else ""
             out.append(Reason(
                 f"At best, {shift} cover{skill} on {words.day(v.dates[0])} stays "
-                f"{v.units} short ({v.message}).", ("cover",), (), v.dates))
+                f"{v.units} short ({v.message}).", ("cover",), (), v.dates,
+                (v.shift or "", v.skill)))
     return ("found" if code == cp_model.OPTIMAL else "unknown"), out

@@ -138,7 +138,7 @@ def _short_reason(ws: Workspace, code: str, d: date, c: Cover, free: list[str],
         rules.append(w)
     if not why:
         parts.append("nobody holds the skills it needs")
-    return Reason("; ".join(parts) + ".", unique(rules), tuple(why), (d,))
+    return Reason("; ".join(parts) + ".", unique(rules), tuple(why), (d,), (code, c.skill))
 
 
 def _daily(ws: Workspace, av: Availability) -> list[Reason]:

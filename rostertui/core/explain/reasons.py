@@ -13,9 +13,10 @@ class Reason:
     rules: tuple[str, ...] = ()
     people: tuple[str, ...] = ()
     dates: tuple[date, ...] = ()
+    cover: tuple[str, str | None] | None = None  # (shift, skill) of a cover row it is about
 
     def to_json(self) -> dict[str, Any]:
-        """The cli.md shape: {"message", "rules", "people", "dates"}."""
+        """The cli.md shape: {"message", "rules", "people", "dates"} (`cover` is for the UI)."""
         return {"message": self.message, "rules": list(self.rules),
                 "people": list(self.people), "dates": [d.isoformat() for d in self.dates]}
 

@@ -85,6 +85,8 @@ def target(ws: Workspace, reason: Reason) -> GotoCell | None:
         person = next((p for p in known if p in away), person)
     if person is None and day is None:
         return None
+    if person is None and reason.cover is not None:
+        return GotoCell(None, day, reason.cover)  # a cover row's cell that day
     return GotoCell(person, day)
 
 
