@@ -201,6 +201,7 @@ def solve(
     started = time.monotonic()
     recorder = _Recorder(built, started, on_progress, cancel)
     if options.lp_bound and keep is None:
+        recorder.report(0.0)  # something to show while the LP is solved
         # Before the search, not beside it: a GLOP thread next to the CP-SAT workers
         # cost 5-8 % of penalty on Curtois-Qu 10 and 12 at 60 s on 2 cores (seeds 1
         # and 2: 5051/5055 against 4843/4769 without, 4859/4762 with the LP first),
