@@ -19,6 +19,15 @@ def iso_date(text: str) -> date:
         raise argparse.ArgumentTypeError(f"{text!r} is not a date; write YYYY-MM-DD") from None
 
 
+def search_options(p: argparse.ArgumentParser) -> None:
+    """--time-limit, --workers and --seed, as `solve` and `repair` take them."""
+    p.add_argument("--time-limit", type=float, default=60.0, metavar="S",
+                   help="seconds to search (default 60)")
+    p.add_argument("--workers", type=int, default=0, metavar="N",
+                   help="search threads (default: every core)")
+    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+
+
 def version_number(text: str) -> int:
     """argparse type: a published version, `3` or `v3`."""
     raw = text[1:] if text[:1] in "vV" else text

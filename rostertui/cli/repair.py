@@ -8,7 +8,7 @@ import threading
 from datetime import date
 from pathlib import Path
 
-from rostertui.cli.args import cell_line, day, iso_date, violation_line
+from rostertui.cli.args import cell_line, day, iso_date, search_options, violation_line
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
 from rostertui.cli.solve import ProgressLine, ctrl_c_cancels
 from rostertui.core.errors import EditError
@@ -31,11 +31,7 @@ def register(verbs: argparse._SubParsersAction) -> None:
     p.add_argument("workspace", nargs="?", default=".", help="workspace folder (default: .)")
     p.add_argument("--from", dest="start_from", type=iso_date, metavar="DATE",
                    help="first day that may change, YYYY-MM-DD")
-    p.add_argument("--time-limit", type=float, default=60.0, metavar="S",
-                   help="seconds to search (default 60)")
-    p.add_argument("--workers", type=int, default=0, metavar="N",
-                   help="search threads (default: every core)")
-    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    search_options(p)
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=lambda a: do_repair(
         a.workspace, start_from=a.start_from, time_limit=a.time_limit, workers=a.workers,

@@ -12,6 +12,7 @@ from contextlib import contextmanager
 from pathlib import Path
 from typing import TextIO
 
+from rostertui.cli.args import search_options
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, warn
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
@@ -27,11 +28,7 @@ def register(verbs: argparse._SubParsersAction) -> None:
         "Progress goes to stderr; Ctrl-C stops early and keeps the best roster so far.",
     )
     p.add_argument("workspace", nargs="?", default=".", help="workspace folder (default: .)")
-    p.add_argument("--time-limit", type=float, default=60.0, metavar="S",
-                   help="seconds to search (default 60)")
-    p.add_argument("--workers", type=int, default=0, metavar="N",
-                   help="search threads (default: every core)")
-    p.add_argument("--seed", type=int, default=0, metavar="N", help="random seed (default 0)")
+    search_options(p)
     p.add_argument("--json", action="store_true", help="print one JSON object")
     p.set_defaults(run=lambda a: do_solve(
         a.workspace, time_limit=a.time_limit, workers=a.workers, seed=a.seed, as_json=a.json))

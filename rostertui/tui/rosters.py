@@ -1,5 +1,6 @@
-"""Roster shapes the session needs: full rows in staff order, rows of people kept, the
-cells two rosters differ in (by day index). Pure: no textual."""
+"""Roster shapes the session needs: rows of people kept, the cells two rosters differ in
+(by day index); full rows in staff order come from the core (`normalised`). Pure: no
+textual."""
 
 from __future__ import annotations
 
@@ -7,7 +8,6 @@ from dataclasses import dataclass
 
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster
-from rostertui.core.models.workspace import Workspace
 
 
 @dataclass(frozen=True)
@@ -16,19 +16,6 @@ class CellChange:
     day: int
     before: str
     after: str
-
-
-def normalised(ws: Workspace, roster: Roster | None) -> Roster:
-    """One row of `days` codes per person, in staff order (a missing row is off)."""
-    n = ws.unit.days
-    given = roster.rows if roster is not None else {}
-    rows = {}
-    for pid in ws.person_ids:
-        row = list(given.get(pid, ()))[:n]
-        rows[pid] = row + [OFF] * (n - len(row))
-    if roster is None:
-        return Roster(start=ws.unit.start, days=n, rows=rows)
-    return roster.model_copy(update={"rows": rows, "start": ws.unit.start, "days": n})
 
 
 def keep_people(roster: Roster, ids: list[str]) -> Roster:

@@ -24,9 +24,10 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Lock, Roster
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.repair.rows import normalised
 from rostertui.core.stats import RosterStats, roster_stats
 from rostertui.tui.repairs import AbsencePlan, SwapPlan, plan_absence, plan_swap
-from rostertui.tui.rosters import changed_cells, normalised
+from rostertui.tui.rosters import changed_cells
 
 __all__ = ["Change", "EditRefused", "Session", "changed_cells"]
 

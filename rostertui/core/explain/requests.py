@@ -24,7 +24,7 @@ from rostertui.core.models.roster import Lock
 from rostertui.core.models.workspace import EffectiveRule, Workspace
 from rostertui.core.repair.diff import CellDiff, roster_diff
 from rostertui.core.repair.impact import impact
-from rostertui.core.repair.swap import full_rows
+from rostertui.core.repair.rows import full_rows
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.run import SolveOptions, solve
 

@@ -17,7 +17,7 @@ from rostertui.core.models.requests import Leave, RequestsFile
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff, roster_diff
-from rostertui.core.repair.swap import full_rows
+from rostertui.core.repair.rows import full_rows, normalised
 
 
 @dataclass(frozen=True)
@@ -54,7 +54,6 @@ def record_absence(ws: Workspace, person: str, first: date, last: date | None = 
     for day in leave.dates():
         if unit.in_period(day):
             rows[person][(day - unit.start).days] = OFF
-    new = roster.model_copy(update={"rows": rows, "solve": None, "start": unit.start,
-                                    "days": unit.days})
+    new = normalised(ws, roster).model_copy(update={"rows": rows, "solve": None})
     cleared = roster_diff(ws, roster, new)
     return Absence(leave, requests, new if cleared else roster, cleared)

@@ -21,7 +21,7 @@ from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import roster_diff
 from rostertui.core.repair.fixes import ChangedCell, attribute
 from rostertui.core.repair.impact import impact
-from rostertui.core.repair.swap import full_rows
+from rostertui.core.repair.rows import normalised
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.run import ProgressCallback, SolveOptions, SolveOutcome, solve
 
@@ -62,8 +62,7 @@ def repair(ws: Workspace, start_from: date, options: SolveOptions | None = None,
         raise EditError(f"--from {start_from} is after the period ends ({unit.end}): "
                         "nothing left to repair")
     start_from = max(start_from, unit.start)
-    current = ws.roster.model_copy(update={"rows": full_rows(ws, ws.roster),
-                                           "start": unit.start, "days": unit.days})
+    current = normalised(ws, ws.roster)
     ws = dataclasses.replace(ws, roster=current)
     before = check_roster(ws, current)
     keep = Keep(rows=current.rows, frozen=(start_from - unit.start).days,

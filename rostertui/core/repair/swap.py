@@ -6,10 +6,10 @@ from __future__ import annotations
 from datetime import date
 
 from rostertui.core.errors import EditError
-from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff, roster_diff
+from rostertui.core.repair.rows import full_rows, normalised
 
 Cell = tuple[str, date]
 
@@ -28,16 +28,6 @@ def swap_pairs(person: str, day: date, person2: str, day2: date | None) -> list[
 
 def locked_cells(roster: Roster) -> set[Cell]:
     return {(lk.person, d) for lk in roster.lock for d in lk.dates}
-
-
-def full_rows(ws: Workspace, roster: Roster) -> dict[str, list[str]]:
-    """One row of `days` codes per person in staff.toml (a missing row is off)."""
-    n = ws.unit.days
-    rows = {}
-    for pid in ws.person_ids:
-        row = list(roster.rows.get(pid, ()))[:n]
-        rows[pid] = row + [OFF] * (n - len(row))
-    return rows
 
 
 def need_cell(ws: Workspace, person: str, day: date) -> None:
@@ -69,6 +59,5 @@ def swap(ws: Workspace, roster: Roster | None, person: str, day: date, person2: 
         (pa, da), (pb, db) = a, b
         ia, ib = (da - start).days, (db - start).days
         rows[pa][ia], rows[pb][ib] = rows[pb][ib], rows[pa][ia]
-    new = roster.model_copy(update={"rows": rows, "solve": None, "start": start,
-                                    "days": ws.unit.days})
+    new = normalised(ws, roster).model_copy(update={"rows": rows, "solve": None})
     return new, roster_diff(ws, roster, new)
