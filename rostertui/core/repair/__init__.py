@@ -1,5 +1,6 @@
 """Changing a published roster: diff, swap, absence, minimal-change repair.
 
+* rows.py      a roster shaped to the unit: full rows in staff order
 * diff.py      cells that differ between two rosters, by person and date
 * impact.py    violations a change creates and resolves
 * swap.py      exchange two cells (or two pairs)
