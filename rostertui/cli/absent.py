@@ -12,7 +12,7 @@ from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
 from rostertui.core.check import check_roster
 from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
-from rostertui.core.io.save import save
+from rostertui.core.io.transaction import transaction
 from rostertui.core.repair.absence import record_absence
 from rostertui.core.repair.impact import impact
 
@@ -53,9 +53,11 @@ def do_absent(workspace: str | Path, person: str, first: date, last: date | None
     before = check_roster(ws)
     after_ws = dataclasses.replace(ws, requests=absence.requests, roster=absence.roster)
     effect = impact(before, check_roster(after_ws))
-    save(absence.requests, ws.path)  # the leave first: it is what the user typed
-    if absence.cleared and absence.roster is not None:
-        save(absence.roster, ws.path)
+    with transaction(ws.path, "absent") as tx:  # both files, or neither
+        tx.save(absence.requests)  # the leave first: it is what the user typed
+        if absence.cleared and absence.roster is not None:
+            tx.save(absence.roster)
+    warn(tx.notices)
     after = effect.after
     if as_json:
         print_json({"leave": absence.leave.model_dump(mode="json", by_alias=True,

@@ -8,6 +8,7 @@ from pathlib import Path
 
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
 from rostertui.core.check import check_roster
+from rostertui.core.errors import Problem
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.published import publish
 
@@ -33,7 +34,9 @@ def do_publish(workspace: str | Path, *, note: str = "", as_json: bool = False) 
                     "run rostertui solve first")
     assert ws.path is not None
     check = check_roster(ws)
-    done = publish(ws.path, ws.roster, note)
+    notices: list[Problem] = []
+    done = publish(ws.path, ws.roster, note, notices=notices)
+    warn(notices)
     if as_json:
         print_json({"version": done.version, "at": done.meta.at.isoformat(),
                     "note": done.meta.note, "path": str(done.path),

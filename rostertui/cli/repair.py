@@ -5,13 +5,14 @@ from __future__ import annotations
 import argparse
 import sys
 import threading
+import time
 from datetime import date
 from pathlib import Path
 
 from rostertui.cli.args import cell_line, day, iso_date, search_options, violation_line
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
-from rostertui.cli.solve import ProgressLine, ctrl_c_cancels
-from rostertui.core.errors import EditError
+from rostertui.cli.solve import ProgressLine, ctrl_c_cancels, warn_if_build_overruns
+from rostertui.core.errors import EditError, Problem
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
 from rostertui.core.models.workspace import Workspace
@@ -41,11 +42,14 @@ def register(verbs: argparse._SubParsersAction) -> None:
 def do_repair(workspace: str | Path, *, start_from: date | None = None,
               time_limit: float = 60.0, workers: int = 0, seed: int = 0,
               as_json: bool = False) -> int:
+    deadline = time.monotonic() + time_limit  # the limit is for the whole command
     ws = load_workspace(workspace)
     warn(ws.warnings)
     assert ws.path is not None
+    warn_if_build_overruns(ws, time_limit, deadline)
     first = start_from or default_from(ws)
-    options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed)
+    options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed,
+                           deadline=deadline)
     cancel = threading.Event()
     line = ProgressLine(sys.stderr)
     with ctrl_c_cancels(cancel):
@@ -57,7 +61,9 @@ def do_repair(workspace: str | Path, *, start_from: date | None = None,
             line.close()
     outcome = result.outcome
     if outcome.roster is not None:
-        save(outcome.roster, ws.path)
+        notices: list[Problem] = []
+        save(outcome.roster, ws.path, notices)
+        warn(notices)
     if as_json:
         print_json({"status": outcome.status, "objective": outcome.objective,
                     "bound": outcome.bound, "seconds": round(outcome.seconds, 3),

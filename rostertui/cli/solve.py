@@ -14,10 +14,12 @@ from typing import TextIO
 
 from rostertui.cli.args import search_options
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, warn
+from rostertui.core.errors import Problem
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, SolveOutcome, SolveProgress, solve
+from rostertui.core.solver.model import estimate_build
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
@@ -103,11 +105,14 @@ def ctrl_c_cancels(cancel: threading.Event) -> Iterator[None]:
 
 def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 0,
              seed: int = 0, as_json: bool = False) -> int:
+    deadline = time.monotonic() + time_limit  # the limit is for the whole command
     ws = load_workspace(workspace)
     warn(ws.warnings)
+    warn_if_build_overruns(ws, time_limit, deadline)
     cancel = threading.Event()
     line = ProgressLine(sys.stderr)
-    options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed)
+    options = SolveOptions(time_limit=time_limit, workers=workers, seed=seed,
+                           deadline=deadline)
     with ctrl_c_cancels(cancel):
         try:
             outcome = solve(ws, options, on_progress=line, cancel=cancel)
@@ -126,7 +131,9 @@ def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 
                   "try a longer --time-limit. Nothing was written.", file=sys.stderr)
         return EXIT_HARD
     assert ws.path is not None and outcome.check is not None
-    save(outcome.roster, ws.path)
+    notices: list[Problem] = []
+    save(outcome.roster, ws.path, notices)
+    warn(notices)
     if as_json:
         print_json({"status": outcome.status, "objective": outcome.objective,
                     "bound": outcome.bound, "seconds": round(outcome.seconds, 3),
@@ -134,6 +141,18 @@ def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 
     else:
         print(summary(ws, outcome))
     return EXIT_OK if outcome.check.compliant else EXIT_HARD
+
+
+def warn_if_build_overruns(ws: Workspace, time_limit: float, deadline: float) -> None:
+    """Say before starting when building the model alone will take longer than the
+    time left (the estimate is from the model's size: `estimate_build`)."""
+    est = estimate_build(ws)
+    if est.seconds <= deadline - time.monotonic():
+        return
+    about = f"{est.seconds:.0f}" if est.seconds >= 2 else f"{est.seconds:.1f}"
+    print(f"Building the model for {est.people} people x {est.days} days takes about "
+          f"{about} s, more than --time-limit {time_limit:g}; the roster will take longer "
+          "than asked.", file=sys.stderr, flush=True)
 
 
 def print_explanation(ws: Workspace, time_limit: float, workers: int) -> None:

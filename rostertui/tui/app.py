@@ -186,7 +186,12 @@ class RosterApp(App[int]):
         except OSError as exc:
             self.push_screen(ErrorDialog("Not saved", f"the files could not be written: {exc}"))
             return
-        self.notify("saved " + " and ".join(str(p) for p in self.session.wrote), timeout=4)
+        saved = "saved " + " and ".join(str(p) for p in self.session.wrote)
+        if self.session.notices:  # a file written fresh: where its previous text is kept
+            self.notify("\n".join([saved, *self.session.notices]), severity="warning",
+                        timeout=12)
+        else:
+            self.notify(saved, timeout=4)
         self.revised()
 
     def action_undo(self) -> None:

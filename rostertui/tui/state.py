@@ -18,8 +18,9 @@ from datetime import date
 from pathlib import Path
 
 from rostertui.core.check import CheckResult, check_roster
-from rostertui.core.errors import EditError
-from rostertui.core.io.save import save
+from rostertui.core.errors import EditError, Problem
+from rostertui.core.io.published import Published, stage_publish
+from rostertui.core.io.transaction import Transaction, transaction
 from rostertui.core.models.common import OFF
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Lock, Roster
@@ -62,6 +63,7 @@ class Session:
         self.roster = normalised(ws, roster) if roster is not None else self.saved
         self.had_file = ws.roster is not None
         self.wrote: list[Path] = []  # the files the last save wrote
+        self.notices: list[str] = []  # what the last save wants known (a backup kept)
         self._undo: list[Change] = []
         self._redo: list[Change] = []
         self.check: CheckResult
@@ -218,18 +220,35 @@ class Session:
         return change
 
     def save(self) -> Path:
-        """Write roster.toml, and requests.toml when it changed (comments kept), each
-        atomically; the session is then clean. Returns the roster's path."""
+        """Write roster.toml, and requests.toml when it changed (comments kept), in one
+        transaction (both files or neither); the session is then clean. Returns the
+        roster's path; `wrote` and `notices` tell the rest."""
         assert self.ws.path is not None, "a loaded workspace always has a path"
-        self.wrote = []
-        if self.requests_dirty:
-            self.wrote.append(save(self.requests, self.ws.path))
-            self.saved_requests = self.requests
-        path = save(self.roster, self.ws.path)
-        self.wrote.insert(0, path)
+        with transaction(self.ws.path, "save") as tx:
+            wrote = self._stage_save(tx)
+        self._saved(wrote, tx.notices)
+        return wrote[0]
+
+    def publish(self, note: str = "") -> Published:
+        """Save (as `save`) and keep the roster as the next published version, all in
+        one transaction, so the version is exactly what the files hold."""
+        assert self.ws.path is not None, "a loaded workspace always has a path"
+        with transaction(self.ws.path, "publish") as tx:
+            wrote = self._stage_save(tx)
+            done = stage_publish(tx, self.roster, note)
+        self._saved(wrote, tx.notices)
+        return done
+
+    def _stage_save(self, tx: Transaction) -> list[Path]:
+        requests = [tx.save(self.requests)] if self.requests_dirty else []
+        return [tx.save(self.roster), *requests]
+
+    def _saved(self, wrote: list[Path], notices: list[Problem]) -> None:
+        self.wrote = wrote
+        self.notices = [str(p) for p in notices]
+        self.saved_requests = self.requests
         self.saved = self.roster
         self.had_file = True
-        return path
 
     # -- internals ----------------------------------------------------------------------
     def _need_cell(self, pid: str, day: int) -> None:

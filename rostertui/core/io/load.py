@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import os
 import re
 import tomllib
 from pathlib import Path
@@ -17,6 +18,7 @@ from rostertui.core.io.report import Report
 from rostertui.core.io.roster_csv import read_roster_csv
 from rostertui.core.io.ruleset import merge_rules
 from rostertui.core.io.toml_lines import key_lines
+from rostertui.core.io.transaction import JOURNAL, recover
 from rostertui.core.models.history import History
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Roster
@@ -56,6 +58,10 @@ KNOWN_KEYS = _known_keys()
 
 def read_toml(path: Path, label: str, report: Report) -> dict[str, Any] | None:
     """Parse one TOML file; on failure record a problem and return None."""
+    if not path.is_file():  # a named pipe would block forever, a folder cannot be read
+        report.error(label, (), "not a regular file (a folder, named pipe or device): "
+                     "a workspace file must be a regular file or a link to one")
+        return None
     try:
         text = path.read_text(encoding="utf-8")
     except UnicodeDecodeError as exc:
@@ -134,6 +140,10 @@ def load_file(
 ) -> BaseModel | None:
     path = folder / name
     if not path.exists():
+        if os.path.lexists(path):  # a dangling link or a loop: never silently absent
+            report.error(name, (), "is a link to a file that does not exist (or a link "
+                         "loop); fix or remove the link")
+            return None
         if name in REQUIRED:
             report.error(name, (), f"missing: a workspace needs {', '.join(REQUIRED)}")
         return None
@@ -154,8 +164,13 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
     folder = Path(folder)
     report = Report()
     if not folder.is_dir():
-        report.error(str(folder), (), "no such workspace folder")
+        why = ("is a file, not a workspace folder; give the folder that holds unit.toml"
+               if folder.exists() else "no such workspace folder")
+        report.error(str(folder), (), why)
         raise InputError(report.problems)
+    finished = recover(folder)  # a change of several files a killed run left half done
+    if finished:
+        report.warn(JOURNAL, (), finished)
     raw: dict[str, Any] = {}
     models = {
         name: load_file(folder, name, report, raw) for name in FILES if name != "roster.toml"

@@ -2,17 +2,15 @@
 
 A version file is a roster.toml (same layout, loads with `check --roster`) with a
 `[published]` table: its number, when it was published (UTC) and the note given.
-A new version is written to a temporary file and then hard-linked to its name,
-which fails rather than replace a file that exists: two publishes at once get two
-numbers, and no earlier version is ever lost.
+A new version is staged in a transaction (`transaction.py`, the workspace locked, so
+two publishes at once get two numbers) and then hard-linked to its name, which fails
+rather than replace a file that exists: no earlier version is ever lost. The UI saves
+the roster and publishes it in one transaction.
 """
 
 from __future__ import annotations
 
-import contextlib
-import os
 import re
-import tempfile
 import tomllib
 from dataclasses import dataclass
 from datetime import UTC, datetime
@@ -22,8 +20,8 @@ import tomli_w
 from pydantic import Field, ValidationError
 
 from rostertui.core.errors import InputError, Problem
-from rostertui.core.io.atomic import fsync_dir
 from rostertui.core.io.save import dumps_roster
+from rostertui.core.io.transaction import TargetTaken, Transaction, transaction
 from rostertui.core.models.common import Strict
 from rostertui.core.models.roster import Roster
 
@@ -111,47 +109,36 @@ def list_published(ws_folder: str | Path) -> list[Published]:
 
 
 def publish(ws_folder: str | Path, roster: Roster, note: str = "",
-            now: datetime | None = None) -> Published:
-    """Keep `roster` as the next published version; never replaces an existing file."""
-    folder = folder_of(ws_folder)
+            now: datetime | None = None, notices: list[Problem] | None = None) -> Published:
+    """Keep `roster` as the next published version; never replaces an existing file.
+
+    Written through a transaction (the workspace locked, so two publishes get two
+    numbers); what the user should know (a change finished for a previous run) is
+    appended to `notices`."""
+    while True:
+        try:
+            with transaction(ws_folder, "publish") as tx:
+                done = stage_publish(tx, roster, note, now)
+        except TargetTaken:  # the number was taken meanwhile, outside rostertui
+            continue
+        if notices is not None:
+            notices.extend(tx.notices)
+        return done
+
+
+def stage_publish(tx: Transaction, roster: Roster, note: str = "",
+                  now: datetime | None = None) -> Published:
+    """Stage `roster` as the next published version of the workspace `tx` writes, so it
+    is kept together with the transaction's other files, or not at all."""
+    folder = folder_of(tx.folder)
     folder.mkdir(exist_ok=True)
     at = (now or datetime.now(UTC)).replace(microsecond=0)
     while True:
-        numbers = versions(ws_folder)
+        numbers = versions(tx.folder)
         meta = PublishedMeta(version=(numbers[-1] + 1) if numbers else 1, at=at, note=note)
-        target = path_of(ws_folder, meta.version)
-        if _create(target, dumps_published(meta, roster)):
-            return Published(meta, roster, target)
-
-
-def _create(target: Path, text: str) -> bool:
-    """Write `text` to a new file `target` in one step; False if it exists already."""
-    fd, tmp = tempfile.mkstemp(prefix=f".{target.name}.", suffix=".tmp", dir=target.parent)
-    try:
-        with os.fdopen(fd, "wb") as fh:
-            fh.write(text.encode("utf-8"))
-            fh.flush()
-            os.fsync(fh.fileno())
+        target = path_of(tx.folder, meta.version)
         try:
-            os.link(tmp, target)  # fails if target exists: nothing is ever replaced
-        except FileExistsError:
-            return False
-        except OSError:  # no hard links here: exclusive create, then write
-            return _create_exclusive(target, text)
-    finally:
-        with contextlib.suppress(OSError):
-            os.unlink(tmp)
-    fsync_dir(target.parent)
-    return True
-
-
-def _create_exclusive(target: Path, text: str) -> bool:
-    try:
-        fd = os.open(target, os.O_WRONLY | os.O_CREAT | os.O_EXCL, 0o666)
-    except FileExistsError:
-        return False
-    with os.fdopen(fd, "wb") as fh:
-        fh.write(text.encode("utf-8"))
-        fh.flush()
-        os.fsync(fh.fileno())
-    return True
+            tx.create(target, dumps_published(meta, roster))
+        except TargetTaken:  # written by something else since we listed the folder
+            continue
+        return Published(meta, roster, target)

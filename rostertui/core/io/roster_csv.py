@@ -7,8 +7,10 @@ A person/date pair not in the file is off. Every bad row is reported with its li
 from __future__ import annotations
 
 import csv
+import io
 from datetime import date
 from pathlib import Path
+from typing import Any
 
 from rostertui.core.errors import Problem
 from rostertui.core.io.report import Report
@@ -29,7 +31,16 @@ def read_roster_csv(
     except (OSError, UnicodeDecodeError) as exc:
         report.error(label, (), f"cannot be read: {exc}")
         return None
-    reader = csv.reader(text.splitlines())
+    reader = csv.reader(io.StringIO(text, newline=""))
+    try:
+        return _read(reader, label, unit, people, codes, report)
+    except csv.Error as exc:  # e.g. a field longer than the csv module's limit
+        _bad(report, label, max(1, reader.line_num), f"not a readable CSV row ({exc})")
+        return None
+
+
+def _read(reader: Any, label: str, unit: Unit, people: list[str], codes: set[str],
+          report: Report) -> Roster | None:
     header = next(reader, None)
     if header is None:
         report.error(label, (), "empty file; expected a header person,date,shift")
@@ -45,7 +56,8 @@ def read_roster_csv(
     rows = {pid: [OFF] * unit.days for pid in people}
     seen: dict[tuple[str, date], int] = {}
     known = set(people)
-    for lineno, record in enumerate(reader, start=2):
+    for record in reader:
+        lineno = reader.line_num
         if not any(field.strip() for field in record):
             continue
         if len(record) < len(names):

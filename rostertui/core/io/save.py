@@ -2,19 +2,26 @@
 
 A file that exists is changed in place (`toml_merge`): its comments and layout stay, and
 only what the model changed is rewritten. roster.toml is the tool's own file and is always
-written fresh in the spec layout.
+written fresh in the spec layout. Whenever a fresh rendering replaces text that held more
+(the merge failed, the file was not TOML, roster.toml had comments), the previous text is
+first kept in `.rostertui/backup/` and the save says so. `render` gives the text without
+writing it, for a change of several files at once (`transaction.py`).
 """
 
 from __future__ import annotations
 
+import itertools
 import tomllib
+from dataclasses import dataclass
+from datetime import datetime
 from pathlib import Path
 from typing import Any
 
 import tomli_w
 from pydantic import BaseModel
 
-from rostertui.core.io.atomic import write_atomic
+from rostertui.core.errors import Problem
+from rostertui.core.io.atomic import create_new, write_atomic
 from rostertui.core.io.toml_merge import merge_text, pairs, same_data
 from rostertui.core.models.history import History
 from rostertui.core.models.requests import RequestsFile
@@ -148,29 +155,135 @@ def _merge_data(model: BaseModel, raw: dict[str, Any]) -> dict[str, Any]:
     return data if same else new
 
 
-def _merged(model: BaseModel, path: Path) -> str | None:
-    """The file's text with the model's data merged in; None if it cannot be trusted."""
+def _merged(model: BaseModel, text: str) -> tuple[str | None, str]:
+    """The file's text with the model's data merged in, or None and why it cannot be."""
     try:
-        text = path.read_text(encoding="utf-8")
         data = _merge_data(model, tomllib.loads(text))
-    except (OSError, ValueError):  # unreadable or not TOML: written fresh, as before
-        return None
+    except ValueError:  # not TOML: written fresh
+        return None, "not valid TOML, so it was written fresh"
     try:
         merged = merge_text(text, data)
         back = tomllib.loads(merged)
     except Exception:  # a tomlkit corner case must not stop a save: write it fresh
-        return None
+        return None, "could not keep its comments and layout"
     # never write something that reads back differently from what was meant
-    return merged if same_data(back, tomllib.loads(tomli_w.dumps(data))) else None
+    if same_data(back, tomllib.loads(tomli_w.dumps(data))):
+        return merged, ""
+    return None, "could not keep its comments and layout"
 
 
-def save(model: BaseModel, folder: str | Path) -> Path:
-    """Write one file model to its file in the workspace folder, atomically.
+@dataclass(frozen=True)
+class Rendered:
+    """What `save` writes: the file, its new text, and, when that text is a fresh rendering
+    that drops what the file held (comments, layout, text that was not TOML), the previous
+    bytes to keep as a backup and why they are lost from the file."""
+
+    path: Path
+    text: str
+    previous: bytes | None = None
+    why: str = ""
+
+
+def render(model: BaseModel, folder: str | Path) -> Rendered:
+    """The file `save` would write for `model` in the workspace `folder`, and its text.
 
     An existing file that parses keeps its comments and layout: only what changed is
     rewritten. roster.toml (the tool's own file) and new files are written fresh.
     """
     path = Path(folder) / FILE_NAMES[type(model)]
-    merged = None if isinstance(model, Roster) or not path.is_file() else _merged(model, path)
-    write_atomic(path, merged if merged is not None else dumps(model))
-    return path
+    if not path.is_file():
+        return Rendered(path, dumps(model))
+    old = path.read_bytes()  # unreadable: the OSError stops the save, nothing is replaced
+    try:
+        text = old.decode("utf-8")
+    except UnicodeDecodeError:
+        return _fresh(path, model, old, "not UTF-8 text, so it was written fresh")
+    if isinstance(model, Roster):
+        try:
+            tomllib.loads(text)
+        except ValueError:
+            return _fresh(path, model, old, "not valid TOML, so it was written fresh")
+        if has_comment(text):
+            return _fresh(path, model, old, "always written fresh, so its comments are not kept")
+        return Rendered(path, dumps(model))
+    merged, why = _merged(model, text)
+    if merged is not None:
+        return Rendered(path, merged)
+    return _fresh(path, model, old, why)
+
+
+def _fresh(path: Path, model: BaseModel, old: bytes, why: str) -> Rendered:
+    text = dumps(model)
+    if text.encode("utf-8") == old:  # nothing of the old text is lost
+        return Rendered(path, text)
+    return Rendered(path, text, old, why)
+
+
+def has_comment(text: str) -> bool:
+    """Whether TOML text holds a comment: a `#` outside every string."""
+    i, n = 0, len(text)
+    while i < n:
+        c = text[i]
+        if c == "#":
+            return True
+        if c not in "\"'":
+            i += 1
+            continue
+        quote = c * 3 if text.startswith(c * 3, i) else c
+        j = i + len(quote)
+        while j < n and not text.startswith(quote, j):
+            if c == '"' and text[j] == "\\":
+                j += 1
+            elif len(quote) == 1 and text[j] == "\n":
+                break  # not TOML; stop the string at the line's end
+            j += 1
+        j += len(quote)
+        for _ in range(2 if len(quote) == 3 else 0):  # the closing quotes may be 4 or 5
+            if j < n and text[j] == c:
+                j += 1
+        i = j
+    return False
+
+
+BACKUP_FOLDER = Path(".rostertui") / "backup"
+
+
+def keep_backup(folder: str | Path, name: str, data: bytes, now: datetime | None = None) -> Path:
+    """Copy `data` (a file's previous text) to `.rostertui/backup/<name>.<YYYYmmddTHHMMSS>`
+    in the workspace, atomically; an earlier backup is never overwritten (a counter is
+    added). Returns the backup's path."""
+    where = Path(folder) / BACKUP_FOLDER
+    where.mkdir(parents=True, exist_ok=True)
+    stamp = (now or datetime.now()).strftime("%Y%m%dT%H%M%S")
+    for n in itertools.count():
+        path = where / (f"{name}.{stamp}" + (f".{n}" if n else ""))
+        if not path.exists() and create_new(path, data):
+            return path
+    raise AssertionError("unreachable")
+
+
+def keep_previous(rendered: Rendered, folder: str | Path) -> Problem | None:
+    """When `rendered` drops what its file held: back the previous text up and return the
+    notice saying so (None when nothing is lost)."""
+    if rendered.previous is None:
+        return None
+    name = rendered.path.name
+    backup = keep_backup(folder, name, rendered.previous)
+    shown = backup.relative_to(Path(folder)).as_posix()
+    return Problem(name, "", f"{rendered.why}; the previous text is kept in {shown}")
+
+
+def save(model: BaseModel, folder: str | Path, notices: list[Problem] | None = None) -> Path:
+    """Write one file model to its file in the workspace folder, atomically.
+
+    An existing file that parses keeps its comments and layout: only what changed is
+    rewritten. When it cannot (the merge fails, the file is not TOML, roster.toml held
+    comments), its previous text is first copied to `.rostertui/backup/` and a notice
+    naming the copy is appended to `notices`.
+    """
+    rendered = render(model, folder)
+    notice = keep_previous(rendered, folder)
+    if notice is not None and notices is not None:
+        notices.append(notice)
+    write_atomic(rendered.path, rendered.text)
+    return rendered.path

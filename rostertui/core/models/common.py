@@ -27,7 +27,7 @@ def _identifier(value: str) -> str:
 
 
 def _clock(value: str) -> str:
-    m = re.fullmatch(r"(\d\d):(\d\d)", value)
+    m = re.fullmatch(r"([0-9][0-9]):([0-9][0-9])", value)
     if not m or int(m.group(1)) > 23 or int(m.group(2)) > 59:
         raise ValueError(f"{value!r} is not a clock time: expected \"HH:MM\" from 00:00 to 23:59")
     return value

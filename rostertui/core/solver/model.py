@@ -128,3 +128,65 @@ def _add_rule(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRuns, ho
         add_balance(b, eff, hours, weekends)
     else:  # pragma: no cover - every kind of the union is handled above
         raise TypeError(f"no model for rule kind {rule.kind!r}")
+
+
+# -- how long build_model takes, told before building -----------------------------------
+# Seconds per unit of size, measured on the development machine (x86_64, 2 cores,
+# Python 3.11, OR-Tools 9.15) by `bench/bench_limit.py --calibrate`. First each rule
+# kind alone on 400 people x 28 days (the clinic's rules, tests/tui/bigws.py, and
+# bench/generate.py's), less the build without rules: min-rest and weekly-rest cost
+# 35-48 us per person and day, the stretch rules 21-35, max-consecutive-shift 11-22,
+# every other kind 2-17. Their sum overcounts what rules share (off runs, hours,
+# weekends), so the rates below are those relative costs scaled (x 0.76) and the
+# base rate (per possible person-day-shift cell: the cells, cover and requests) fitted
+# by least squares on 18 units from 18 to 2014 people (the clinic's rules, generated
+# units, Curtois-Qu 3-20). On units that build in more than 0.5 s the estimate fell
+# within -25 % to +60 % of the measured build over two runs (the build itself varies
+# by 20 % between runs on this shared machine; 2014 people x 28 days: 11.1 s
+# estimated, 9.9-12.3 s measured); the tiny ones (under 0.2 s) come out up to twice.
+BUILD_PER_CELL = 4.5e-6
+BUILD_PER_RULE_DAY: dict[str, float] = {  # per person in scope and day not on leave
+    "min-rest": 34e-6,
+    "weekly-rest": 34e-6,
+    "max-consecutive-days": 27e-6,
+    "min-consecutive-days": 27e-6,
+    "min-consecutive-off": 27e-6,
+    "max-consecutive-shift": 15e-6,
+}
+BUILD_PER_OTHER_RULE_DAY = 9e-6  # every other kind: counts, hours, weekends, sequences
+
+
+@dataclass(frozen=True)
+class BuildEstimate:
+    """The size of a workspace's model and about how long building it takes."""
+
+    people: int
+    days: int
+    codes: int  # shift types
+    cells: int  # (person, day, shift) cells that may hold the shift
+    rule_people: int  # effective rule x person pairs
+    seconds: float
+
+
+def estimate_build(ws: Workspace) -> BuildEstimate:
+    """About how long `build_model(ws)` takes on the development machine, from the
+    model's size alone (nothing is built: this takes milliseconds)."""
+    n = ws.unit.days
+    leave: dict[str, set[int]] = {}
+    for lv in ws.requests.leave:
+        for d in lv.dates():
+            i = (d - ws.unit.start).days
+            if 0 <= i < n:
+                leave.setdefault(lv.person, set()).add(i)
+    days = {p.id: n - len(leave.get(p.id, ())) for p in ws.staff.person}
+    cells = 0
+    for p in ws.staff.person:
+        skills = set(p.skills)
+        cells += days[p.id] * sum(1 for s in ws.shifts.shift if set(s.requires) <= skills)
+    seconds = BUILD_PER_CELL * cells
+    pairs = 0
+    for eff in ws.rules:
+        rate = BUILD_PER_RULE_DAY.get(eff.rule.kind, BUILD_PER_OTHER_RULE_DAY)
+        seconds += rate * sum(days.get(pid, 0) for pid in eff.people)
+        pairs += len(eff.people)
+    return BuildEstimate(len(ws.staff.person), n, len(ws.shifts.shift), cells, pairs, seconds)

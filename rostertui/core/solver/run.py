@@ -1,5 +1,13 @@
 """Run the solver: time limit, workers, seed, warm start, live progress, cancel.
 
+The time limit is for the whole solve, the build included: one deadline (measured
+from the call, or `SolveOptions.deadline` from the caller, who may count its own
+loading), and each phase gets only what remains of it. The build takes what it
+takes (`model.estimate_build` says beforehand how long); the warm start's completion
+gets a bounded share, the LP relaxation its share and only when it can be built in
+that share, CP-SAT the rest (never less than `MIN_SEARCH`), less what is kept back
+for polishing and refereeing the roster it returns.
+
 The roster CP-SAT returns is then judged by the independent checker (the
 referee): its penalty must equal the solver's objective and it must find no
 hard violation. A mismatch raises RefereeError: a bug, never rounded away.
@@ -37,8 +45,12 @@ class SolveOptions:
     seed: int = 0
     warm_start: bool = True  # hint the search with the workspace's current roster
     lp_bound: bool = True  # a bound from the LP relaxation (GLOP), solved before the search
-    lp_share: float = 0.2  # at most this share of the time limit for the LP
+    lp_share: float = 0.2  # at most this share of the time left (after build and hint) for the LP
     log: bool = False
+    # time.monotonic() by which the whole solve should be over (build, hint, LP, search,
+    # polish, referee); None: time_limit from the call. A caller passes its own start +
+    # time_limit so that its loading counts too.
+    deadline: float | None = None
 
 
 @dataclass(frozen=True)
@@ -63,6 +75,8 @@ class SolveOutcome:
     best_seconds: float | None = None  # time to the best roster
     history: list[SolveProgress] = field(default_factory=list)
     changes: int | None = None  # repair: cells changed from the reference roster
+    wall_seconds: float = 0.0  # the whole solve(): build, hint, LP, search, polish, referee
+    phases: dict[str, float] = field(default_factory=dict)  # seconds each phase took
 
     @property
     def gap(self) -> float | None:
@@ -74,6 +88,27 @@ class SolveOutcome:
 
 
 ProgressCallback = Callable[[SolveProgress], None]
+
+# -- the time budget --------------------------------------------------------------------
+MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a small unit's
+#                   first roster takes well under a second
+HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
+HINT_CAP = 10.0  # ...and never more than this
+POLISH_CAP = 60.0  # a safety cap: polishing a fixed roster takes 1.1 s at 2014 people
+# Costs that grow with the built model, in seconds per constraint of its proto,
+# measured by `bench/bench_limit.py --phases` on 2014 people x 28 days (1.02 M
+# constraints, 0.50 M variables) on the development machine (x86_64, 2 cores,
+# Python 3.11, OR-Tools 9.15):
+FIX_PER_CONSTRAINT = 1.0e-6  # clone the model and fix every cell (hint, polish): 1.0 s
+# Relaxation(model) reads every constraint in Python: 26-29 s there; 28-31 us a
+# constraint on the clinic's rules from 100 to 2014 people, 38-41 on Curtois-Qu 12, 20.
+LP_BUILD_PER_CONSTRAINT = 35e-6
+# CP-SAT's own time beyond its limit (copying and loading the model before its clock
+# starts, stopping after): 1.0 s there (2.98 s for a 2 s limit).
+SEARCH_OVERHEAD_PER_CONSTRAINT = 1.0e-6
+# After the search: polish 1.05 s, the referee's check 0.1-0.24 s, the CLI's save
+# 0.2 s; kept back from CP-SAT's time, with a third to spare.
+FINISH_PER_CONSTRAINT = 2.0e-6
 
 
 class _Recorder(cp_model.CpSolverSolutionCallback):
@@ -140,41 +175,61 @@ def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster
     return Roster(start=cells.start, days=cells.n, rows=rows, lock=locks)
 
 
-def _hint(built: Built) -> None:
-    """Warm start from the workspace's current roster.
+def _hint(built: Built, budget: float) -> None:
+    """Warm start from the workspace's current roster, within `budget` seconds.
 
     The roster's cells alone leave CP-SAT to complete every auxiliary variable, which
     it often fails to do in time; so the roster is first fixed and solved (a matter
     of propagation), and the complete assignment becomes the hint. A roster that
-    breaks a hard rule cannot be completed: its cells are hinted as they are.
+    breaks a hard rule cannot be completed, and with too little time it is not tried:
+    then its cells are hinted as they are.
     """
     roster = built.cells.ws.roster
     if roster is None:
         return
+    started = time.monotonic()
     cells = built.cells
     values: dict[tuple[int, int, str], int] = {}
     for key in cells.x:
         p, d, code = key
         row = roster.rows.get(cells.people[p])
         values[key] = int(row is not None and d < len(row) and row[d] == code)
-    fixed = _fixed(built, values)
-    solver = cp_model.CpSolver()
-    solver.parameters.num_workers = 1
-    solver.parameters.max_time_in_seconds = 10
-    if solver.solve(fixed) in (cp_model.OPTIMAL, cp_model.FEASIBLE):
-        for i in range(len(built.model.proto.variables)):
-            var = built.model.get_int_var_from_proto_index(i)
-            built.model.add_hint(var, solver.value(fixed.get_int_var_from_proto_index(i)))
-    else:
-        for key, var in cells.x.items():
-            built.model.add_hint(var, values[key])
+    hint = built.model.proto.solution_hint
+    size = len(built.model.proto.constraints)
+    if budget > FIX_PER_CONSTRAINT * size + SEARCH_OVERHEAD_PER_CONSTRAINT * size + 0.1:
+        fixed = _fixed(built, values)
+        solver = cp_model.CpSolver()
+        solver.parameters.num_workers = 1
+        solver.parameters.max_time_in_seconds = max(0.05, min(
+            HINT_CAP, budget - (time.monotonic() - started)
+            - SEARCH_OVERHEAD_PER_CONSTRAINT * size))
+        if solver.solve(fixed) in (cp_model.OPTIMAL, cp_model.FEASIBLE):
+            solution = list(solver.response_proto.solution)
+            hint.vars.extend(range(len(solution)))
+            hint.values.extend(solution)
+            return
+    hint.vars.extend(var.index for var in cells.x.values())
+    hint.values.extend(values[key] for key in cells.x)
 
 
 def _fixed(built: Built, values: dict[tuple[int, int, str], int]) -> cp_model.CpModel:
+    """A copy of the model with every cell fixed to `values` (in its domain, which is
+    much quicker to write and to presolve than one equality per cell: on 2014 people
+    polish takes 1.05 s, 0.4 of it solving, instead of 4.7 s, 4.3 of it solving)."""
     fixed = built.model.clone()
     fixed.clear_hints()
+    variables = fixed.proto.variables
+    clash = False
     for key, var in built.cells.x.items():
-        fixed.add(fixed.get_bool_var_from_proto_index(var.index) == values[key])
+        value = values[key]
+        domain = variables[var.index].domain
+        if not any(domain[i] <= value <= domain[i + 1] for i in range(0, len(domain), 2)):
+            clash = True  # a value the cell cannot take: no completion
+            continue
+        domain.clear()
+        domain.extend([value, value])
+    if clash:
+        fixed.add_bool_or([])
     return fixed
 
 
@@ -194,10 +249,20 @@ def solve(
     """
     options = options or SolveOptions()
     t0 = time.monotonic()
+    deadline = options.deadline if options.deadline is not None else t0 + options.time_limit
+    phases: dict[str, float] = {}
     built = build_model(ws, keep)
-    build_seconds = time.monotonic() - t0
+    build_seconds = phases["build"] = time.monotonic() - t0
+    size = len(built.model.proto.constraints)
+    finish = FINISH_PER_CONSTRAINT * size  # kept back for polish and referee
+
+    def left() -> float:
+        return deadline - time.monotonic() - finish
+
     if options.warm_start:
-        _hint(built)
+        t = time.monotonic()
+        _hint(built, HINT_SHARE * left())
+        phases["hint"] = time.monotonic() - t
     started = time.monotonic()
     recorder = _Recorder(built, started, on_progress, cancel)
     if options.lp_bound and keep is None:
@@ -206,11 +271,17 @@ def solve(
         # cost 5-8 % of penalty on Curtois-Qu 10 and 12 at 60 s on 2 cores (seeds 1
         # and 2: 5051/5055 against 4843/4769 without, 4859/4762 with the LP first),
         # while the LP itself takes 0.1-1.5 s there (10.5 s on instance 12).
-        recorder.lp_bound = Relaxation(built.model).solve(options.time_limit * options.lp_share)
+        share = options.lp_share * left()
+        if LP_BUILD_PER_CONSTRAINT * size < share:  # else building the LP alone overruns
+            relaxation = Relaxation(built.model)
+            rest = share - (time.monotonic() - started)
+            if rest > 0:
+                recorder.lp_bound = relaxation.solve(rest)
+        phases["lp"] = time.monotonic() - started
         recorder.report(time.monotonic() - started)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
-        0.01, options.time_limit - (time.monotonic() - started))
+        min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
     solver.parameters.num_workers = options.workers or os.cpu_count() or 1
     solver.parameters.random_seed = options.seed
     solver.parameters.log_search_progress = options.log
@@ -228,6 +299,7 @@ def solve(
         if stop_watch is not None:
             stop_watch.set()
     seconds = time.monotonic() - started
+    phases["search"] = seconds - phases.get("lp", 0.0)
     status = {
         cp_model.OPTIMAL: "optimal",
         cp_model.FEASIBLE: "feasible",
@@ -235,14 +307,18 @@ def solve(
         cp_model.MODEL_INVALID: "unknown",
     }.get(code, "unknown")
     outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
-                           build_seconds=build_seconds, history=recorder.history)
+                           build_seconds=build_seconds, history=recorder.history,
+                           phases=phases)
     if recorder.best is None:
         if status in ("optimal", "feasible"):
             status = "unknown"
         outcome.status = status
+        outcome.wall_seconds = time.monotonic() - t0
         return outcome
     roster = roster_from(built, recorder.best)
+    t = time.monotonic()
     total, changes = polish(built, recorder.best)
+    phases["polish"] = time.monotonic() - t
     bound = max(round(solver.best_objective_bound), recorder.lp_bound or 0)
     if recorder.lp_bound is not None and total < recorder.lp_bound:
         raise RefereeError(f"the LP bound {recorder.lp_bound} lies above the penalty "
@@ -258,7 +334,10 @@ def solve(
     outcome.roster, outcome.objective, outcome.bound = roster, objective, min(bound, objective)
     outcome.first_seconds, outcome.best_seconds = recorder.first_seconds, recorder.best_seconds
     past = ws.unit.start + timedelta(days=keep.frozen) if keep is not None else None
+    t = time.monotonic()
     outcome.check = referee(ws, roster, objective, past_before=past)
+    phases["referee"] = time.monotonic() - t
+    outcome.wall_seconds = time.monotonic() - t0
     return outcome
 
 
@@ -273,7 +352,7 @@ def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, 
     fixed = _fixed(built, values)
     solver = cp_model.CpSolver()
     solver.parameters.num_workers = 1
-    solver.parameters.max_time_in_seconds = 60
+    solver.parameters.max_time_in_seconds = POLISH_CAP
     if solver.solve(fixed) != cp_model.OPTIMAL:
         raise RefereeError("the solver could not evaluate its own roster exactly")
     changes = sum(solver.boolean_value(lit) for lit in built.changes)

@@ -1,10 +1,10 @@
 """Published versions: the list, publishing the roster as shown, choosing a version to
 compare against in the grid's diff mode.
 
-Publishing first saves the roster (and requests.toml, when an absence changed it),
-so the version kept is exactly what the files hold; each version is a new file in
-published/, never overwriting an earlier one. The screen is dismissed with the
-version to compare against, or None.
+Publishing saves the roster (and requests.toml, when an absence changed it) in the
+same transaction, so the version kept is exactly what the files hold; each version is
+a new file in published/, never overwriting an earlier one. The screen is dismissed
+with the version to compare against, or None.
 """
 
 from __future__ import annotations
@@ -20,7 +20,7 @@ from textual.screen import ModalScreen
 from textual.widgets import Button, DataTable, Input, Label, Static
 
 from rostertui.core.errors import InputError
-from rostertui.core.io.published import Published, list_published, publish
+from rostertui.core.io.published import Published, list_published
 from rostertui.core.repair.diff import roster_diff
 from rostertui.tui.screens.dialogs import ErrorDialog
 from rostertui.tui.state import Session
@@ -137,13 +137,16 @@ class VersionsScreen(ModalScreen[int | None]):
         session = self.session
         assert session.ws.path is not None
         try:
-            session.save()
-            done = publish(session.ws.path, session.roster, note)
+            done = session.publish(note)  # saves too: both in one transaction
         except OSError as exc:
             self.app.push_screen(ErrorDialog("Not published", f"{type(exc).__name__}: {exc}"))
             return
         self.app.revised()  # type: ignore[attr-defined]
-        self.notify(f"published version {done.version}: published/{done.path.name}", timeout=5)
+        shown = f"published version {done.version}: published/{done.path.name}"
+        if session.notices:
+            self.notify("\n".join([shown, *session.notices]), severity="warning", timeout=12)
+        else:
+            self.notify(shown, timeout=5)
         self.reload()
 
     @on(Button.Pressed, "#publish")
