@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import shutil
+from datetime import date
 from pathlib import Path
 
 import pytest
@@ -40,3 +41,18 @@ def copy_ws(src: Path, tmp_path: Path, name: str = "ws") -> Path:
     for p in dest.rglob("*"):
         p.chmod(0o644 if p.is_file() else 0o755)
     return dest
+
+
+def two_working_days(folder: Path, first_day: int = 10) -> tuple[str, date, date]:
+    """A person and two consecutive dates from `first_day` on which they work."""
+    from rostertui.core.io.load import load_workspace
+    from rostertui.core.models.common import OFF
+
+    ws = load_workspace(folder)
+    assert ws.roster is not None
+    for pid in ws.person_ids:
+        row = ws.roster.rows[pid]
+        for d in range(first_day, ws.unit.days - 1):
+            if row[d] != OFF and row[d + 1] != OFF:
+                return pid, ws.unit.dates[d], ws.unit.dates[d + 1]
+    raise AssertionError("nobody works two days in a row")

@@ -4,9 +4,13 @@ from __future__ import annotations
 
 import json
 import sys
+from pathlib import Path
 from typing import Any
 
+from pydantic import BaseModel
+
 from rostertui.core.errors import InputError, Problem
+from rostertui.core.io.save import save
 
 EXIT_OK = 0
 EXIT_HARD = 1
@@ -27,6 +31,14 @@ def fail_input(exc: InputError) -> int:
 def warn(problems: list[Problem]) -> None:
     for p in problems:
         print(f"warning: {p}", file=sys.stderr)
+
+
+def save_and_warn(model: BaseModel, folder: Path) -> Path:
+    """`save`, printing its notices (a file written fresh: where its old text is kept)."""
+    notices: list[Problem] = []
+    path = save(model, folder, notices)
+    warn(notices)
+    return path
 
 
 def fail(message: str) -> int:

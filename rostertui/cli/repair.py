@@ -10,11 +10,10 @@ from datetime import date
 from pathlib import Path
 
 from rostertui.cli.args import cell_line, day, iso_date, search_options, violation_line
-from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
+from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, save_and_warn, warn
 from rostertui.cli.solve import ProgressLine, ctrl_c_cancels, warn_if_build_overruns
-from rostertui.core.errors import EditError, Problem
+from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
-from rostertui.core.io.save import save
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.repair import RepairOutcome, default_from, repair
 from rostertui.core.solver import SolveOptions
@@ -61,9 +60,7 @@ def do_repair(workspace: str | Path, *, start_from: date | None = None,
             line.close()
     outcome = result.outcome
     if outcome.roster is not None:
-        notices: list[Problem] = []
-        save(outcome.roster, ws.path, notices)
-        warn(notices)
+        save_and_warn(outcome.roster, ws.path)
     if as_json:
         print_json({"status": outcome.status, "objective": outcome.objective,
                     "bound": outcome.bound, "seconds": round(outcome.seconds, 3),

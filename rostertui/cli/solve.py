@@ -13,10 +13,8 @@ from pathlib import Path
 from typing import TextIO
 
 from rostertui.cli.args import search_options
-from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, warn
-from rostertui.core.errors import Problem
+from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, save_and_warn, warn
 from rostertui.core.io.load import load_workspace
-from rostertui.core.io.save import save
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, SolveOutcome, SolveProgress, solve
 from rostertui.core.solver.model import estimate_build
@@ -131,9 +129,7 @@ def do_solve(workspace: str | Path, *, time_limit: float = 60.0, workers: int = 
                   "try a longer --time-limit. Nothing was written.", file=sys.stderr)
         return EXIT_HARD
     assert ws.path is not None and outcome.check is not None
-    notices: list[Problem] = []
-    save(outcome.roster, ws.path, notices)
-    warn(notices)
+    save_and_warn(outcome.roster, ws.path)
     if as_json:
         print_json({"status": outcome.status, "objective": outcome.objective,
                     "bound": outcome.bound, "seconds": round(outcome.seconds, 3),

@@ -7,11 +7,10 @@ from datetime import date
 from pathlib import Path
 
 from rostertui.cli.args import cell_line, iso_date, violation_line
-from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
+from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, save_and_warn, warn
 from rostertui.core.check import Violation, check_roster
-from rostertui.core.errors import EditError, Problem
+from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
-from rostertui.core.io.save import save
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff
 from rostertui.core.repair.impact import Impact, impact
@@ -49,9 +48,7 @@ def do_swap(workspace: str | Path, person: str, day: date, person2: str,
         return fail(str(exc))
     effect = impact(check_roster(ws), check_roster(ws, roster))
     if changed and not dry_run:
-        notices: list[Problem] = []
-        save(roster, ws.path, notices)
-        warn(notices)
+        save_and_warn(roster, ws.path)
     after = effect.after
     if as_json:
         print_json({"changed": [c.to_json() for c in changed],

@@ -18,7 +18,7 @@ from textual.worker import Worker, WorkerState
 
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.messages import GotoCell, RosterSolved
-from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog
+from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog, notify_written
 from rostertui.tui.screens.editors import EditorsScreen
 from rostertui.tui.screens.explain import Explained, ExplainScreen
 from rostertui.tui.screens.export import ExportScreen
@@ -186,12 +186,8 @@ class RosterApp(App[int]):
         except OSError as exc:
             self.push_screen(ErrorDialog("Not saved", f"the files could not be written: {exc}"))
             return
-        saved = "saved " + " and ".join(str(p) for p in self.session.wrote)
-        if self.session.notices:  # a file written fresh: where its previous text is kept
-            self.notify("\n".join([saved, *self.session.notices]), severity="warning",
-                        timeout=12)
-        else:
-            self.notify(saved, timeout=4)
+        notify_written(self, "saved " + " and ".join(str(p) for p in self.session.wrote),
+                       self.session.notices, timeout=4)
         self.revised()
 
     def action_undo(self) -> None:

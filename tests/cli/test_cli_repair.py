@@ -4,7 +4,6 @@ from __future__ import annotations
 
 import json
 import shutil
-from datetime import date
 from pathlib import Path
 
 import pytest
@@ -13,10 +12,9 @@ from rostertui.cli.main import main
 from rostertui.core.check import check_roster
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.published import load_published
-from rostertui.core.models.common import OFF
 from rostertui.core.repair.diff import roster_diff
 from rostertui.core.solver import SolveOptions, solve
-from tests.conftest import DEMO, FIXTURES, copy_ws
+from tests.conftest import DEMO, FIXTURES, copy_ws, two_working_days
 
 
 @pytest.fixture
@@ -31,18 +29,6 @@ def run(capsys: pytest.CaptureFixture[str], *args: str) -> tuple[int, str, str]:
     code = main(list(args))
     captured = capsys.readouterr()
     return code, captured.out, captured.err
-
-
-def two_working_days(folder: Path) -> tuple[str, date, date]:
-    """A person and two consecutive mid-period dates on which they work."""
-    ws = load_workspace(folder)
-    assert ws.roster is not None
-    for pid in ws.person_ids:
-        row = ws.roster.rows[pid]
-        for d in range(10, ws.unit.days - 1):
-            if row[d] != OFF and row[d + 1] != OFF:
-                return pid, ws.unit.dates[d], ws.unit.dates[d + 1]
-    raise AssertionError("nobody works two days in a row")
 
 
 def test_sick_call_repair_changes_few_cells_and_nothing_before_from(

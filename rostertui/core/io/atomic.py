@@ -82,15 +82,22 @@ def create_new(path: Path, data: str | bytes) -> bool:
     path = Path(path)
     tmp = stage(path, data)
     try:
-        try:
-            os.link(tmp, path)
-        except FileExistsError:
-            return False
-        except OSError:  # no hard links on this filesystem
-            return _create_exclusive(path, tmp.read_bytes())
+        return link_new(tmp, path)
     finally:
         with contextlib.suppress(OSError):
             os.unlink(tmp)
+
+
+def link_new(tmp: Path, path: Path) -> bool:
+    """Give the staged file `tmp` the new name `path` too (the caller unlinks `tmp`);
+    False, nothing written, if `path` exists. A hard link fails rather than replace a
+    file; where there are none, an exclusive create and copy instead."""
+    try:
+        os.link(tmp, path)
+    except FileExistsError:
+        return False
+    except OSError:  # no hard links on this filesystem
+        return _create_exclusive(path, Path(tmp).read_bytes())
     fsync_dir(path.parent)
     return True
 

@@ -44,7 +44,7 @@ import tomli_w
 from pydantic import BaseModel
 
 from rostertui.core.errors import Problem
-from rostertui.core.io.atomic import JOURNAL, fsync_dir, stage, write_atomic
+from rostertui.core.io.atomic import JOURNAL, fsync_dir, link_new, stage, write_atomic
 from rostertui.core.io.save import keep_previous, render
 
 __all__ = ["JOURNAL", "TargetTaken", "Transaction", "recover", "transaction"]
@@ -211,16 +211,8 @@ def _put(s: _Staged) -> None:
     if not s.create:
         os.replace(s.tmp, s.target)
         return
-    try:
-        os.link(s.tmp, s.target)
-    except FileExistsError:
-        if not os.path.samefile(s.tmp, s.target):
-            raise
-    except OSError:  # no hard links here; the folder is locked and the name was free
-        if s.target.exists():
-            raise FileExistsError(errno.EEXIST, "exists already", str(s.target)) from None
-        os.rename(s.tmp, s.target)
-        return
+    if not link_new(s.tmp, s.target) and not os.path.samefile(s.tmp, s.target):
+        raise FileExistsError(errno.EEXIST, "exists already", str(s.target))
     os.unlink(s.tmp)
 
 

@@ -1,4 +1,5 @@
-"""Small modal dialogs: quit with unsaved changes, a yes/no question, an error message."""
+"""Small modal dialogs: quit with unsaved changes, a yes/no question, an error message;
+and the note after a write."""
 
 from __future__ import annotations
 
@@ -6,6 +7,7 @@ from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.dom import DOMNode
 from textual.screen import ModalScreen
 from textual.widgets import Button, Label, Static
 
@@ -100,3 +102,12 @@ class ErrorDialog(ModalScreen[None]):
     @on(Button.Pressed)
     def _pressed(self) -> None:
         self.dismiss()
+
+
+def notify_written(node: DOMNode, done: str, notices: list[str], timeout: float = 5) -> None:
+    """Say what was written; with the save's notices (a file written fresh: where its
+    previous text is kept), as a warning that stays longer."""
+    if notices:
+        node.notify("\n".join([done, *notices]), severity="warning", timeout=12)
+    else:
+        node.notify(done, timeout=timeout)

@@ -22,7 +22,7 @@ from textual.widgets import Button, DataTable, Input, Label, Static
 from rostertui.core.errors import InputError
 from rostertui.core.io.published import Published, list_published
 from rostertui.core.repair.diff import roster_diff
-from rostertui.tui.screens.dialogs import ErrorDialog
+from rostertui.tui.screens.dialogs import ErrorDialog, notify_written
 from rostertui.tui.state import Session
 
 
@@ -142,11 +142,8 @@ class VersionsScreen(ModalScreen[int | None]):
             self.app.push_screen(ErrorDialog("Not published", f"{type(exc).__name__}: {exc}"))
             return
         self.app.revised()  # type: ignore[attr-defined]
-        shown = f"published version {done.version}: published/{done.path.name}"
-        if session.notices:
-            self.notify("\n".join([shown, *session.notices]), severity="warning", timeout=12)
-        else:
-            self.notify(shown, timeout=5)
+        notify_written(self, f"published version {done.version}: published/{done.path.name}",
+                       session.notices)
         self.reload()
 
     @on(Button.Pressed, "#publish")

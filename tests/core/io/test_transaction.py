@@ -15,8 +15,7 @@ import pytest
 from rostertui.cli.main import main
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.transaction import JOURNAL, recover, transaction
-from rostertui.core.models.common import OFF
-from tests.conftest import DEMO, FIXTURES, REPO, copy_ws
+from tests.conftest import DEMO, FIXTURES, REPO, copy_ws, two_working_days
 
 pytestmark = pytest.mark.skipif(os.name != "posix", reason="kills with SIGKILL")
 
@@ -29,15 +28,8 @@ def clinic_copy(tmp_path: Path, name: str) -> Path:
 
 def absent_args(folder: Path) -> list[str]:
     """`absent` for a person on two days they work, so both files change."""
-    ws = load_workspace(folder)
-    assert ws.roster is not None
-    for pid in ws.person_ids:
-        row = ws.roster.rows[pid]
-        for d in range(5, ws.unit.days - 1):
-            if row[d] != OFF and row[d + 1] != OFF:
-                first, last = ws.unit.dates[d].isoformat(), ws.unit.dates[d + 1].isoformat()
-                return ["absent", str(folder), pid, first, last, "--reason", "sick"]
-    raise AssertionError("nobody works two days in a row")
+    pid, first, last = two_working_days(folder, first_day=5)
+    return ["absent", str(folder), pid, first.isoformat(), last.isoformat(), "--reason", "sick"]
 
 
 def killed_absent(folder: Path, hook: str) -> subprocess.CompletedProcess[str]:
