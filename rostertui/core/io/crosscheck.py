@@ -6,6 +6,7 @@ import difflib
 from dataclasses import dataclass, field
 from datetime import date
 
+from rostertui.core.io.errors_map import key_path_text
 from rostertui.core.io.report import Report
 from rostertui.core.models.common import NIGHT_SELECTOR, OFF
 from rostertui.core.models.history import History
@@ -62,6 +63,21 @@ class CrossCheck:
         self.codes = {s.code for s in shifts.shift} | names.codes
         self.skills = {skill for p in staff.person for skill in p.skills} | names.skills
         self.used_skills = _used_skills(shifts)
+        self.unnamed: list[tuple[str, tuple, str]] = []  # codes named while none is defined
+
+    def finish(self) -> None:
+        """What is said once for the whole workspace, after every file is checked."""
+        if self.unnamed:
+            files = sorted({file for file, _, _ in self.unnamed})
+            file, path, code = self.unnamed[0]
+            where = key_path_text(path)
+            self.report.error(
+                SHIFTS, (),
+                f"no shift is defined, yet {len(self.unnamed)} shift code(s) are named in "
+                f"{', '.join(files)} (the first: {code!r} at {file} {where}); add the "
+                "[[shift]] entries (code, name, start, end) before a roster, history, "
+                "request or rule names them",
+            )
 
     # -- helpers -----------------------------------------------------------------------
     def person(self, file: str, path: tuple, pid: str) -> bool:
@@ -72,6 +88,9 @@ class CrossCheck:
 
     def code(self, file: str, path: tuple, code: str, *, off_ok: bool = True) -> None:
         if code in self.codes or (off_ok and code == OFF):
+            return
+        if not self.codes:  # no shift at all: said once, by finish(), not per cell
+            self.unnamed.append((file, path, code))
             return
         expected = sorted(self.codes) + ([OFF] if off_ok else [])
         self.report.error(

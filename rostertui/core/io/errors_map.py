@@ -4,6 +4,7 @@ from __future__ import annotations
 
 import difflib
 from collections.abc import Iterable, Sequence
+from datetime import date, datetime, time
 from typing import Any
 
 from pydantic import ValidationError
@@ -39,13 +40,86 @@ def clean_loc(loc: Iterable[Any]) -> KeyPath:
     return tuple(cleaned)
 
 
-def _sentence(err: dict[str, Any], known_keys: Iterable[str]) -> str:
+_EXPECTED = {
+    "date_type": "a TOML date (YYYY-MM-DD, no quotes)",
+    "float_type": "a number",
+    "int_type": "a whole number",
+    "bool_type": "true or false",
+    "string_type": "a string in quotes",
+    "list_type": "a list in [ ]",
+    "dict_type": "a table",
+    "model_type": "a table",
+    "model_attributes_type": "a table",
+}
+
+
+def _found(value: Any) -> str:
+    """What a TOML value is, in the file's own words."""
+    if isinstance(value, bool):
+        return "true" if value else "false"
+    if isinstance(value, datetime):
+        return f"the date-time {value.isoformat()}"
+    if isinstance(value, date):
+        return f"the date {value.isoformat()}"
+    if isinstance(value, time):
+        return f"the time of day {value.isoformat()}"
+    if isinstance(value, int | float):
+        return f"the number {value!r}"
+    if isinstance(value, str):
+        return f"the string {_short(value)!r}"
+    if isinstance(value, list):
+        return "a list"
+    if isinstance(value, dict):
+        return "a table"
+    return type(value).__name__
+
+
+def _short(text: str, limit: int = 40) -> str:
+    return text if len(text) <= limit else text[:limit] + "..."
+
+
+def _hint(kind: str, value: Any) -> str:
+    """A one-step fix where the intended value is plain to see."""
+    if kind == "date_type":
+        if isinstance(value, str):
+            try:
+                return f": write {date.fromisoformat(value.strip()).isoformat()}"
+            except ValueError:
+                return ""
+        if isinstance(value, datetime):
+            return f": write the date alone, {value.date().isoformat()}"
+    if kind in ("float_type", "int_type") and isinstance(value, str):
+        try:
+            number = float(value.strip())
+        except ValueError:
+            return ""
+        if kind == "float_type" or number.is_integer():
+            return f": write {value.strip()} without quotes"
+    if kind == "int_type" and isinstance(value, float) and value.is_integer():
+        return f": write {int(value)}"
+    if kind == "bool_type" and isinstance(value, str) and value.strip().lower() in (
+            "true", "false"):
+        return f": write {value.strip().lower()} without quotes"
+    return ""
+
+
+def _type_sentence(kind: str, value: Any) -> str:
+    return f"expected {_EXPECTED[kind]}; found {_found(value)}{_hint(kind, value)}"
+
+
+def _sentence(err: dict[str, Any], known_keys: Sequence[str]) -> str:
     kind = err["type"]
     loc = err["loc"]
     last = loc[-1] if loc else ""
     value = err.get("input")
     if kind == "extra_forbidden":
-        hint = difflib.get_close_matches(str(last), list(known_keys), n=1, cutoff=0.7)
+        keys = [k for k in known_keys if k != last]
+        if str(last) == "include":
+            return ("key 'include' is not allowed here: only unit.toml lists presets, at its "
+                    "top level, and a preset cannot include another")
+        if str(last) in known_keys:
+            return f"key '{last}' is not allowed here (it belongs to another table)"
+        hint = difflib.get_close_matches(str(last), keys, n=1, cutoff=0.7)
         tip = f" (did you mean '{hint[0]}'?)" if hint else ""
         return f"unknown key '{last}'{tip}"
     if kind == "missing":
@@ -56,6 +130,8 @@ def _sentence(err: dict[str, Any], known_keys: Iterable[str]) -> str:
         )
     if kind == "union_tag_not_found":
         return "a rule needs a kind; expected one of: " + ", ".join(RULE_KINDS)
+    if kind in _EXPECTED:
+        return _type_sentence(kind, value)
     msg = str(err.get("msg", "invalid value"))
     if kind == "value_error":
         return msg.removeprefix("Value error, ")

@@ -126,7 +126,8 @@ def _prune(data: dict[str, Any], locs: list[tuple[Any, ...]]) -> dict[str, Any]:
 def raw_names(data: dict[str, Any] | None, table: str, key: str) -> set[str]:
     """Names given in a file's raw data, valid or not (to avoid cascades of errors)."""
     names: set[str] = set()
-    for item in (data or {}).get(table, []) if isinstance(data, dict) else []:
+    items = data.get(table) if isinstance(data, dict) else None
+    for item in items if isinstance(items, list) else []:
         value = item.get(key) if isinstance(item, dict) else None
         if isinstance(value, str):
             names.add(value)
@@ -221,6 +222,7 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
     local_rules = list(unit.rule) if isinstance(unit, Unit) else []
     for i, rule in enumerate(local_rules):
         check.rule("unit.toml", i, rule)
+    check.finish()
     rules = merge_rules(presets, local_rules, staff, report)
     if report.problems or not isinstance(unit, Unit):
         raise InputError(report.problems)
@@ -240,9 +242,15 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
 def _load_presets(folder: Path, unit: Unit, report: Report) -> list[tuple[str, str, list[Rule]]]:
     loaded: list[tuple[str, str, list[Rule]]] = []
     for i, name in enumerate(unit.include):
-        path = resolve_include(name, folder)
         label = name if name.endswith(".toml") else f"rules/{name}.toml"
-        if not path.is_file():
+        try:
+            path = resolve_include(name, folder)
+            found = path.is_file()
+        except OSError as exc:  # a name too long for the file system, say
+            report.error("unit.toml", ("include", i),
+                         f"preset {name[:60]!r} cannot be looked up: {exc.strerror}")
+            continue
+        if not found:
             if name.endswith(".toml"):
                 why = f"preset file {name!r} not found in the workspace"
             else:

@@ -2,10 +2,12 @@
 
 from __future__ import annotations
 
+import math
 import re
+import unicodedata
 from typing import Annotated, Literal
 
-from pydantic import AfterValidator, BaseModel, ConfigDict
+from pydantic import AfterValidator, BaseModel, BeforeValidator, ConfigDict
 
 IDENTIFIER_RE = re.compile(r"[A-Za-z0-9][A-Za-z0-9_.-]{0,31}")
 OFF = "-"
@@ -33,8 +35,46 @@ def _clock(value: str) -> str:
     return value
 
 
+HOUR_DECIMALS = 2  # hour values are kept to 1/100 h (36 seconds); README "Hours"
+
+
+def _to_hour_resolution(value: object) -> object:
+    """Round a number of hours to 1/100 h before it is checked or used.
+
+    rules.md sums hours exactly; 30.700000000000003 (a float printed in full)
+    and 1e-300 would otherwise need a denominator no integer model can carry.
+    Rounding here, at load, gives the checker and the solver the same value.
+    Anything that is not a plain number is left for the type check to refuse.
+    """
+    if type(value) in (int, float) and math.isfinite(value):  # type: ignore[arg-type]
+        return round(value, HOUR_DECIMALS) + 0.0  # type: ignore[call-overload]
+    return value
+
+
+HourResolution = BeforeValidator(_to_hour_resolution)
+
+
+def _display_name(value: str) -> str:
+    """A name shown on one line: grid rows, CSV cells, calendar titles, headers."""
+    if not value.strip():
+        raise ValueError("a name cannot be empty")
+    for ch in value:
+        if unicodedata.category(ch) in ("Cc", "Zl", "Zp"):
+            raise ValueError(
+                f"{value!r} holds a control character ({_char_name(ch)}); a name is one line "
+                "of text (notes may span lines)"
+            )
+    return value
+
+
+def _char_name(ch: str) -> str:
+    known = {"\n": "a line break", "\r": "a carriage return", "\t": "a tab"}
+    return known.get(ch, f"U+{ord(ch):04X}")
+
+
 Identifier = Annotated[str, AfterValidator(_identifier)]
 ClockTime = Annotated[str, AfterValidator(_clock)]
+DisplayName = Annotated[str, AfterValidator(_display_name)]
 
 
 def clock_minutes(value: str) -> int:
@@ -46,4 +86,4 @@ def clock_minutes(value: str) -> int:
 class Strict(BaseModel):
     """Base of every file model: unknown keys are an error, never ignored."""
 
-    model_config = ConfigDict(extra="forbid", populate_by_name=True)
+    model_config = ConfigDict(extra="forbid", populate_by_name=True, strict=True)

@@ -6,13 +6,13 @@ from typing import Annotated
 
 from pydantic import Field
 
-from rostertui.core.models.common import Strict
+from rostertui.core.models.common import HourResolution, Strict
 
 Code = Annotated[str, Field(min_length=1, max_length=32)]
 
 
 class History(Strict):
     rows: dict[str, list[Code]] = Field(default_factory=dict)
-    hours_before: dict[str, Annotated[float, Field(ge=0, le=366 * 24)]] = Field(
+    hours_before: dict[str, Annotated[float, HourResolution, Field(ge=0, le=366 * 24)]] = Field(
         default_factory=dict
     )

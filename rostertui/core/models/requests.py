@@ -3,10 +3,11 @@
 from __future__ import annotations
 
 from datetime import date, timedelta
+from typing import Annotated
 
 from pydantic import Field, model_validator
 
-from rostertui.core.models.common import Identifier, Strict
+from rostertui.core.models.common import HourResolution, Identifier, Strict
 from rostertui.core.models.rules import Weight
 
 
@@ -15,7 +16,7 @@ class Leave(Strict):
     from_: date = Field(alias="from")
     to: date | None = None
     reason: str | None = None
-    credit_hours: float | None = Field(default=None, ge=0, le=24)
+    credit_hours: Annotated[float, HourResolution, Field(ge=0, le=24)] | None = None
 
     @model_validator(mode="after")
     def _ordered(self) -> Leave:

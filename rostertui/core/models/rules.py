@@ -7,7 +7,7 @@ from typing import Annotated, Literal
 
 from pydantic import Field, PositiveInt, TypeAdapter, model_validator
 
-from rostertui.core.models.common import Identifier, Strict, Weekday
+from rostertui.core.models.common import HourResolution, Identifier, Strict, Weekday
 
 MAX_WEIGHT = 1_000_000
 MAX_HOURS = 366 * 24
@@ -15,7 +15,7 @@ MAX_HOURS = 366 * 24
 Weight = Annotated[PositiveInt, Field(le=MAX_WEIGHT)]
 Count = Annotated[int, Field(ge=0, le=366)]
 Days = Annotated[int, Field(ge=1, le=366)]
-Hours = Annotated[float, Field(ge=0, le=MAX_HOURS)]
+Hours = Annotated[float, HourResolution, Field(ge=0, le=MAX_HOURS)]
 # A shift selector: a unit's shift code or "@night" (checked against the unit on load).
 Selector = Annotated[str, Field(min_length=1, max_length=32)]
 Edges = Literal["open", "closed"]
@@ -117,7 +117,7 @@ class HoursRule(RuleBase):
 
 class MaxAverageWeeklyHours(RuleBase):
     kind: Literal["max-average-weekly-hours"]
-    hours: Annotated[float, Field(gt=0, le=168)]
+    hours: Annotated[float, HourResolution, Field(gt=0, le=168)]
     weeks: Annotated[int, Field(ge=1, le=52)]
 
 

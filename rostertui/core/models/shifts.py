@@ -7,7 +7,15 @@ from typing import Annotated
 
 from pydantic import Field, field_validator, model_validator
 
-from rostertui.core.models.common import ClockTime, Identifier, Strict, Weekday, clock_minutes
+from rostertui.core.models.common import (
+    ClockTime,
+    DisplayName,
+    HourResolution,
+    Identifier,
+    Strict,
+    Weekday,
+    clock_minutes,
+)
 
 NIGHT_START = 23 * 60  # 23:00
 NIGHT_END = 6 * 60  # 06:00
@@ -19,10 +27,10 @@ CoverWeight = Annotated[int, Field(ge=0, le=1_000_000)]
 
 class Shift(Strict):
     code: Identifier
-    name: str
+    name: DisplayName
     start: ClockTime
     end: ClockTime
-    paid_hours: float | None = Field(default=None, ge=0, le=24)
+    paid_hours: Annotated[float, HourResolution, Field(ge=0, le=24)] | None = None
     night: bool | None = None
     requires: list[Identifier] = Field(default_factory=list)
 

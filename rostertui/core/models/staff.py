@@ -4,12 +4,12 @@ from __future__ import annotations
 
 from pydantic import Field
 
-from rostertui.core.models.common import Identifier, Strict
+from rostertui.core.models.common import DisplayName, Identifier, Strict
 
 
 class Person(Strict):
     id: Identifier
-    name: str
+    name: DisplayName
     skills: list[Identifier] = Field(default_factory=list)
     groups: list[Identifier] = Field(default_factory=list)
 

@@ -7,7 +7,7 @@ from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from pydantic import Field, field_validator
 
-from rostertui.core.models.common import Strict, Weekday
+from rostertui.core.models.common import DisplayName, Strict, Weekday
 from rostertui.core.models.rules import Rule
 
 
@@ -18,7 +18,7 @@ class RepairSettings(Strict):
 
 
 class Unit(Strict):
-    name: str
+    name: DisplayName
     timezone: str
     start: date
     days: int = Field(ge=1, le=366)
@@ -33,7 +33,7 @@ class Unit(Strict):
     def _known_zone(cls, value: str) -> str:
         try:
             ZoneInfo(value)
-        except (ZoneInfoNotFoundError, ValueError):
+        except (ZoneInfoNotFoundError, ValueError, OSError):  # OSError: a name too long
             raise ValueError(
                 f"{value!r} is not a known IANA timezone (e.g. \"Europe/Lisbon\", \"UTC\")"
             ) from None
