@@ -20,6 +20,7 @@ from pydantic import BaseModel
 from rostertui.core.io.atomic import write_atomic
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
+from rostertui.core.io.transaction import transaction
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.staff import Staff
 from rostertui.tui.rosters import keep_people
@@ -59,12 +60,13 @@ def apply(session: Session, changed: list[BaseModel],
         for name, text in texts.items():
             write_atomic(trial / name, text)
         load_workspace(trial)  # raises InputError with every problem; nothing written
-    for model in changed:
-        save(model, folder)
-    for name, text in texts.items():
-        write_atomic(folder / name, text)
-    if saved is not None and saved != session.saved:
-        save(saved, folder)
+    with transaction(folder, "edit") as tx:  # every changed file, or none of them
+        for model in changed:
+            tx.save(model)
+        for name, text in texts.items():
+            tx.write(folder / name, text)
+        if saved is not None and saved != session.saved:
+            tx.save(saved)
     ws = load_workspace(folder)
     requests = None
     if session.requests_dirty and not any(isinstance(m, RequestsFile) for m in changed):

@@ -3,6 +3,10 @@ exactly; saving writes requests.toml too; editors keep an unsaved absence."""
 
 from __future__ import annotations
 
+import os
+import signal
+import subprocess
+import sys
 from datetime import date
 from pathlib import Path
 
@@ -14,6 +18,7 @@ from rostertui.core.models.staff import Staff
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.editing import apply
 from rostertui.tui.state import EditRefused, Session
+from tests.conftest import REPO
 
 START = date(2027, 3, 15)
 
@@ -123,3 +128,29 @@ def test_an_editor_change_keeps_an_unsaved_absence(clinic: Path) -> None:
     assert new.ws.person_by_id["c01"].name == "Renamed"
     assert new.requests == s.requests and new.requests_dirty  # the leave is still unsaved
     assert new.code("c03", 5) == "-"
+
+
+@pytest.mark.parametrize(("hook", "renamed"), [("ROSTERTUI_TEST_DIE_BEFORE_COMMIT", False),
+                                               ("ROSTERTUI_TEST_DIE_AFTER_COMMIT", True)])
+def test_an_editor_change_of_two_files_is_all_or_nothing_when_killed(
+        clinic: Path, hook: str, renamed: bool) -> None:
+    """apply() writes staff.toml and unit.toml in one transaction: a kill before its
+    commit keeps both old files, a kill after it is finished by the next load."""
+    code = (
+        "import sys\n"
+        "from rostertui.core.io.load import load_workspace\n"
+        "from rostertui.core.models.staff import Staff\n"
+        "from rostertui.tui.editing import apply\n"
+        "from rostertui.tui.state import Session\n"
+        f"s = Session(load_workspace({str(clinic)!r}))\n"
+        "people = [p.model_copy(update={'name': 'Renamed'}) if p.id == 'c01' else p\n"
+        "          for p in s.ws.staff.person]\n"
+        f"unit = open({str(clinic / 'unit.toml')!r}, encoding='utf-8').read()\n"
+        "apply(s, [Staff(person=people)], {'unit.toml': unit + '\\n# edited\\n'})\n"
+    )
+    env = {**os.environ, hook: "1", "PYTHONPATH": str(REPO)}
+    done = subprocess.run([sys.executable, "-c", code], env=env, cwd=REPO, timeout=120)
+    assert done.returncode == -signal.SIGKILL
+    ws = load_workspace(clinic)
+    assert (ws.person_by_id["c01"].name == "Renamed") is renamed
+    assert ("# edited" in (clinic / "unit.toml").read_text(encoding="utf-8")) is renamed
