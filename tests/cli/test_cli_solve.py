@@ -60,3 +60,23 @@ def test_bad_input_exits_2_without_solving(tmp_path: Path,
     (ws / "unit.toml").write_text((ws / "unit.toml").read_text().replace("days = 7", "days = -1"))
     assert main(["solve", str(ws)]) == 2
     assert "unit.toml: days" in capsys.readouterr().err
+
+
+def test_the_summary_names_each_bound_and_no_decompose_leaves_it_out(
+        tmp_path: Path, capsys: pytest.CaptureFixture[str]) -> None:
+    ws = copy_ws(FIXTURES / "good", tmp_path)
+    assert main(["solve", str(ws), "--time-limit", "10", "--workers", "2"]) == 0
+    out = capsys.readouterr().out
+    assert "bounds: " in out and "column generation" in out
+    assert main(["solve", str(ws), "--time-limit", "5", "--workers", "2", "--no-decompose"]) == 0
+    out = capsys.readouterr().out
+    assert "bounds: " in out and "column generation" not in out
+
+
+def test_the_progress_line_says_when_the_bound_is_being_proved() -> None:
+    from rostertui.cli.solve import format_progress
+    from rostertui.core.solver import SolveProgress
+
+    assert "proving a bound" in format_progress(SolveProgress(1.0, None, 412, stage="bound"))
+    assert "bound      412" in format_progress(SolveProgress(2.0, 500, 412))
+    assert "searching for a first roster" in format_progress(SolveProgress(1.0, None, 412))

@@ -46,6 +46,7 @@ def test_solve_shows_progress_replaces_the_grid_and_saves(clinic: Path) -> None:
             assert changed > 100 and session.dirty and session.check.compliant
             assert f"{changed} cells changed" in screen.summary
             assert f"-> {session.check.penalty};" in screen.summary
+            assert "Bounds: " in screen.summary and "column generation" in screen.summary
             await pilot.press("escape")
             assert isinstance(app.screen, RosterScreen)
             assert set(row_text(grid_of(app), "c01").split()) & {"E", "L", "N"}
@@ -67,9 +68,9 @@ def test_escape_stops_the_search_and_keeps_the_best_roster(clinic: Path) -> None
             screen = app.screen
             assert isinstance(screen, SolveScreen)
             started = time.monotonic()
-            while screen.last_penalty is None and time.monotonic() - started < 30:
-                await pilot.pause(0.1)
-            assert screen.last_penalty is not None  # a first roster was found
+            while screen.last_stage != "bound" and time.monotonic() - started < 30:
+                await pilot.pause(0.05)
+            assert screen.last_penalty is None  # still proving the bound: no roster yet
             await pilot.press("escape")
             await until_finished(pilot, screen, 30)
             assert time.monotonic() - started < 60
@@ -102,3 +103,11 @@ def test_the_ui_answers_keys_while_the_solver_runs(clinic: Path) -> None:
             await until_finished(pilot, screen, 30)
 
     run(go)
+
+
+def test_the_progress_text_says_when_the_bound_is_being_proved() -> None:
+    from rostertui.tui.screens.solve import progress_text
+
+    assert "proving a bound" in str(progress_text(1.0, None, 412, stage="bound"))
+    assert "searching for a first roster" in str(progress_text(1.0, None, 412))
+    assert "penalty 500" in str(progress_text(2.0, 500, 412, stage="bound"))

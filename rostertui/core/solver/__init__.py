@@ -15,6 +15,9 @@ Where each rule lives:
 * counts.py     max/min-shifts, hours, max-average-weekly-hours, soft not-available
 * weekends.py   max-weekends, complete-weekends
 * balance.py    balance
+
+and the bounds: lp_bound.py (the LP relaxation of the model, GLOP) and decompose/
+(Dantzig-Wolfe decomposition by column generation, one pricing model per person).
 """
 
 from rostertui.core.solver.run import SolveOptions, SolveOutcome, SolveProgress, solve

@@ -2,6 +2,8 @@
 
 from __future__ import annotations
 
+from ortools.sat.python import cp_model
+
 from rostertui.core.models.rules import Balance
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.counts import shift_count
@@ -11,25 +13,29 @@ from rostertui.core.solver.terms import Build
 from rostertui.core.solver.weekends import WeekendsWorked
 
 
+def metric_of(b: Build, metric: str, p: int, hours: Hours, ww: WeekendsWorked
+              ) -> tuple[cp_model.LinearExprT, int, int]:
+    """(expression, lowest, highest) of person p's balance metric; hours are scaled by
+    `hours.scale`, every other metric is a count."""
+    cells = b.cells
+    if metric == "hours":
+        return hours.of(p)
+    if metric == "weekends":
+        return ww.count(p)
+    if metric == "shifts":
+        return shift_count(b, p, None)
+    if metric == "nights":
+        return shift_count(b, p, cells.ws.select("@night"))
+    return shift_count(b, p, frozenset([metric.removeprefix("shift:")]))
+
+
 def add_balance(b: Build, eff: EffectiveRule, hours: Hours, ww: WeekendsWorked) -> None:
     rule = eff.rule
     assert isinstance(rule, Balance) and rule.weight is not None
     if len(eff.people) < 2:
         return
     cells, model = b.cells, b.model
-    metrics = []
-    for pid in eff.people:
-        p = cells.pindex[pid]
-        if rule.metric == "hours":
-            metrics.append(hours.of(p))
-        elif rule.metric == "weekends":
-            metrics.append(ww.count(p))
-        elif rule.metric == "shifts":
-            metrics.append(shift_count(b, p, None))
-        elif rule.metric == "nights":
-            metrics.append(shift_count(b, p, cells.ws.select("@night")))
-        else:
-            metrics.append(shift_count(b, p, frozenset([rule.metric.removeprefix("shift:")])))
+    metrics = [metric_of(b, rule.metric, cells.pindex[pid], hours, ww) for pid in eff.people]
     lo = min(m[1] for m in metrics)
     hi = max(m[2] for m in metrics)
     # top >= every value and low <= every value: the objective pulls them together,

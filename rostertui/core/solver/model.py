@@ -44,6 +44,8 @@ class Built:
     changes: list[Lit] = field(default_factory=list)  # repair: one per changed cell
     gaps: list[tuple[int, int, cp_model.IntVar | int]] = field(default_factory=list)
     items: Items | None = None  # explain: the switch of every hard item
+    hours: Hours | None = None  # hour expressions per person (balance, the decomposition)
+    weekends: WeekendsWorked | None = None  # weekends worked per person
 
     def change_cost(self, changes: int) -> int:
         return self.keep.weight * changes if self.keep is not None else 0
@@ -90,7 +92,7 @@ def build_model(ws: Workspace, keep: Keep | None = None, explain: bool = False,
         model.minimize(b.objective() + keep.weight * sum(changes))
     elif items is None:
         model.minimize(b.objective())
-    return Built(model, cells, b, keep, changes, gaps, items)
+    return Built(model, cells, b, keep, changes, gaps, items, hours, weekends)
 
 
 def _cover_switch(ws: Workspace, cells: Cells, items: Items) -> CoverSwitch:

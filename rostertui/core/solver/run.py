@@ -5,12 +5,16 @@ from the call, or `SolveOptions.deadline` from the caller, who may count its own
 loading), and each phase gets only what remains of it. The build takes what it
 takes (`model.estimate_build` says beforehand how long); the warm start's completion
 gets a bounded share, the LP relaxation its share and only when it can be built in
-that share, CP-SAT the rest (never less than `MIN_SEARCH`), less what is kept back
-for polishing and refereeing the roster it returns.
+that share, the column-generation bound (decompose/) its share, CP-SAT the rest
+(never less than `MIN_SEARCH`), less what is kept back for polishing and refereeing
+the roster it returns. The bounds come before the search, not beside it: on 2 cores
+a bound thread next to the CP-SAT workers costs the search more than it gives; and
+with a proven bound the search stops as soon as it finds a roster that meets it.
 
 The roster CP-SAT returns is then judged by the independent checker (the
 referee): its penalty must equal the solver's objective and it must find no
-hard violation. A mismatch raises RefereeError: a bug, never rounded away.
+hard violation; no bound may lie above it. A mismatch raises RefereeError: a bug,
+never rounded away.
 """
 
 from __future__ import annotations
@@ -29,6 +33,7 @@ from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import Built, build_model
@@ -46,6 +51,8 @@ class SolveOptions:
     warm_start: bool = True  # hint the search with the workspace's current roster
     lp_bound: bool = True  # a bound from the LP relaxation (GLOP), solved before the search
     lp_share: float = 0.2  # at most this share of the time left (after build and hint) for the LP
+    decompose: bool = True  # a bound by column generation (decompose/), before the search
+    decompose_share: float = 0.3  # at most this share of the time left for it
     log: bool = False
     # time.monotonic() by which the whole solve should be over (build, hint, LP, search,
     # polish, referee); None: time_limit from the call. A caller passes its own start +
@@ -59,6 +66,7 @@ class SolveProgress:
     penalty: int | None  # best roster found so far (None before the first)
     bound: int  # proven lower bound on the penalty
     changes: int | None = None  # repair: cells the best roster changes
+    stage: str = "search"  # or "bound": column generation is proving the bound
 
 
 @dataclass
@@ -77,6 +85,8 @@ class SolveOutcome:
     changes: int | None = None  # repair: cells changed from the reference roster
     wall_seconds: float = 0.0  # the whole solve(): build, hint, LP, search, polish, referee
     phases: dict[str, float] = field(default_factory=dict)  # seconds each phase took
+    bounds: dict[str, int] = field(default_factory=dict)  # each method's proven bound
+    decomposition: Decomposition | None = None  # the column generation's result
 
     @property
     def gap(self) -> float | None:
@@ -128,7 +138,9 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.best_seconds: float | None = None
         self.history: list[SolveProgress] = []
         self.lp_bound: int | None = None
+        self.dw_bound: int | None = None  # the decomposition's
         self.cp_bound = 0
+        self.stage = "search"
         self.lock = threading.Lock()
 
     def on_solution_callback(self) -> None:
@@ -144,14 +156,20 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.report(elapsed, round(self.best_objective_bound))
         if self.cancel is not None and self.cancel.is_set():
             self.stop_search()
-        if self.lp_bound is not None and objective <= self.lp_bound:
-            self.stop_search()  # proven optimal by the LP bound
+        if self.proven is not None and objective <= self.proven:
+            self.stop_search()  # proven optimal by the LP or the decomposition bound
+
+    @property
+    def proven(self) -> int | None:
+        """The best bound proven before the search (LP, decomposition)."""
+        found = [b for b in (self.lp_bound, self.dw_bound) if b is not None]
+        return max(found) if found else None
 
     def report(self, elapsed: float, bound: int | None = None) -> None:
         with self.lock:
             if bound is not None:
                 self.cp_bound = max(self.cp_bound, bound)
-            best = max(self.cp_bound, self.lp_bound or 0)
+            best = max(self.cp_bound, self.proven or 0)
             penalty = self.best_objective
             changes = None
             if self.built.keep is not None:  # show the penalty alone, not the change cost
@@ -159,7 +177,7 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
                 cost = self.built.change_cost(changes)
                 best = max(0, best - cost) if penalty is not None else 0
                 penalty = penalty - cost if penalty is not None else None
-            progress = SolveProgress(elapsed, penalty, best, changes)
+            progress = SolveProgress(elapsed, penalty, best, changes, self.stage)
             self.history.append(progress)
         if self.on_progress is not None:
             self.on_progress(progress)
@@ -279,6 +297,10 @@ def solve(
                 recorder.lp_bound = relaxation.solve(rest)
         phases["lp"] = time.monotonic() - started
         recorder.report(time.monotonic() - started)
+    decomposition = None
+    if options.decompose and keep is None:
+        decomposition = _decompose(ws, built, options, recorder, left(), cancel)
+        phases["decompose"] = decomposition.seconds
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
@@ -292,14 +314,14 @@ def solve(
     solver.parameters.linearization_level = 2
     solver.best_bound_callback = lambda bound: recorder.report(
         time.monotonic() - started, round(bound))
-    stop_watch = _watch_cancel(solver, cancel)
+    stop_watch = _watch_cancel(solver, cancel, recorder)
     try:
         code = solver.solve(built.model, recorder)
     finally:
         if stop_watch is not None:
             stop_watch.set()
     seconds = time.monotonic() - started
-    phases["search"] = seconds - phases.get("lp", 0.0)
+    phases["search"] = seconds - phases.get("lp", 0.0) - phases.get("decompose", 0.0)
     status = {
         cp_model.OPTIMAL: "optimal",
         cp_model.FEASIBLE: "feasible",
@@ -308,7 +330,11 @@ def solve(
     }.get(code, "unknown")
     outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
                            build_seconds=build_seconds, history=recorder.history,
-                           phases=phases)
+                           phases=phases, decomposition=decomposition)
+    outcome.bounds = {name: b for name, b in (
+        ("cp-sat", max(0, round(solver.best_objective_bound))
+         if recorder.best and keep is None else None),
+        ("lp", recorder.lp_bound), ("decomposition", recorder.dw_bound)) if b is not None}
     if recorder.best is None:
         if status in ("optimal", "feasible"):
             status = "unknown"
@@ -319,10 +345,11 @@ def solve(
     t = time.monotonic()
     total, changes = polish(built, recorder.best)
     phases["polish"] = time.monotonic() - t
-    bound = max(round(solver.best_objective_bound), recorder.lp_bound or 0)
-    if recorder.lp_bound is not None and total < recorder.lp_bound:
-        raise RefereeError(f"the LP bound {recorder.lp_bound} lies above the penalty "
-                           f"{total} of a roster: the relaxation is wrong")
+    bound = max(round(solver.best_objective_bound), recorder.proven or 0)
+    for name in ("lp", "decomposition"):  # a bound is a promise: never above a roster
+        if name in outcome.bounds and total - built.change_cost(changes) < outcome.bounds[name]:
+            raise RefereeError(f"the {name} bound {outcome.bounds[name]} lies above the "
+                               f"penalty {total} of a roster: the bound is wrong")
     if total <= bound:
         status = outcome.status = "optimal"
     cost = built.change_cost(changes)
@@ -339,6 +366,28 @@ def solve(
     phases["referee"] = time.monotonic() - t
     outcome.wall_seconds = time.monotonic() - t0
     return outcome
+
+
+def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Recorder,
+               budget: float, cancel: threading.Event | None) -> Decomposition:
+    """Column generation for at most its share of the `budget` seconds left, its bound
+    shown as it rises."""
+    started = time.monotonic()
+    recorder.stage = "bound"
+
+    def progress(p: DecompositionProgress) -> None:
+        if p.bound is not None and not (recorder.dw_bound or 0) >= p.bound:
+            recorder.dw_bound = p.bound
+        recorder.report(time.monotonic() - recorder.started)
+
+    try:
+        return decompose(ws, built.cells,
+                         deadline=started + max(0.0, options.decompose_share * budget),
+                         workers=options.workers or os.cpu_count() or 1, seed=options.seed,
+                         on_progress=progress, cancel=cancel)
+    finally:
+        recorder.stage = "search"
+        recorder.report(time.monotonic() - recorder.started)
 
 
 def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
@@ -381,9 +430,12 @@ def referee(ws: Workspace, roster: Roster, objective: int | None,
     return result
 
 
-def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None
-                  ) -> threading.Event | None:
-    """Stop the search as soon as `cancel` is set, even between solutions."""
+def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None,
+                  recorder: _Recorder) -> threading.Event | None:
+    """Stop the search as soon as `cancel` is set and there is a roster to keep, even
+    between solutions. Cancelled before the first roster (say, while the bound was
+    being proved), the search goes on to its first roster and stops there (the
+    recorder does that), within the time limit."""
     if cancel is None:
         return None
     done = threading.Event()
@@ -391,8 +443,10 @@ def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None
     def watch() -> None:
         while not done.is_set():
             if cancel.wait(0.1):
-                solver.stop_search()
-                return
+                if recorder.best is not None:
+                    solver.stop_search()
+                    return
+                done.wait(0.1)
 
     threading.Thread(target=watch, daemon=True, name="rostertui-cancel").start()
     return done

@@ -29,6 +29,7 @@ from textual.widget import Widget
 from textual.widgets import Button, Input, Label, Sparkline, Static
 from textual.worker import Worker, WorkerState
 
+from rostertui.core.solver.summary import bound_sources
 from rostertui.tui.messages import ProgressRelay, RosterSolved, SolveProgressed
 from rostertui.tui.state import Session, changed_cells
 
@@ -41,9 +42,11 @@ class SolveSettings:
 
 
 def progress_text(elapsed: float, penalty: int | None, bound: int | None,
-                  changes: int | None = None) -> Text:
+                  changes: int | None = None, stage: str = "search") -> Text:
     text = Text.assemble(("elapsed ", "#8d99a6"), (f"{elapsed:6.1f} s", "bold"))
-    if penalty is None:
+    if penalty is None and stage == "bound":
+        text.append("   proving a bound (column generation)…", style="#f4b942")
+    elif penalty is None:
         text.append("   searching for a first roster…", style="#f4b942")
     else:
         text.append("   penalty ", style="#8d99a6")
@@ -85,6 +88,7 @@ class SearchScreen(ModalScreen[None]):
         self.started = 0.0
         self.last_penalty: int | None = None
         self.last_bound: int | None = None
+        self.last_stage = "search"
         self.last_changes: int | None = None
         self.penalties: list[float] = []
         self.summary = ""
@@ -202,13 +206,15 @@ class SearchScreen(ModalScreen[None]):
         if self.phase == "running":
             elapsed = time.monotonic() - self.started
             self.query_one("#progress", Static).update(
-                progress_text(elapsed, self.last_penalty, self.last_bound, self.last_changes))
+                progress_text(elapsed, self.last_penalty, self.last_bound, self.last_changes,
+                              self.last_stage))
 
     @on(SolveProgressed)
     def _progressed(self, event: SolveProgressed) -> None:
         event.stop()
         p = self.relay.take() or event.progress
         self.last_penalty, self.last_bound, self.last_changes = p.penalty, p.bound, p.changes
+        self.last_stage = p.stage
         if p.penalty is not None and (not self.penalties or self.penalties[-1] != p.penalty):
             self.penalties.append(float(p.penalty))
             self.query_one(Sparkline).data = list(self.penalties[-200:])
@@ -324,7 +330,8 @@ class SolveScreen(SearchScreen):
             f"{outcome.status}{stopped}: {len(changed)} cells changed; penalty "
             f"{before_check.penalty} -> {check.penalty}; hard violations "
             f"{before_check.hard_violations} -> {check.hard_violations}; "
-            f"{outcome.seconds:.1f} s. The new roster is in the grid, not saved yet.")
+            f"{outcome.seconds:.1f} s. Bounds: {bound_sources(outcome)}. "
+            "The new roster is in the grid, not saved yet.")
         self.say(Text(self.summary, style="bold"))
         self.post_message(RosterSolved(outcome))
         self.query_one("#close", Button).focus()

@@ -39,11 +39,26 @@ def test_cancel_keeps_the_best_roster_so_far() -> None:
         if p.penalty is not None:
             cancel.set()
 
-    out = solve(ws, SolveOptions(time_limit=120, workers=2),
+    out = solve(ws, SolveOptions(time_limit=120, workers=2, decompose=False),
                 on_progress=first_roster_then_cancel, cancel=cancel)
     assert out.seconds < 60
     assert out.roster is not None and out.status in ("feasible", "optimal")
     assert check_roster(ws, out.roster).compliant
+
+
+def test_cancel_while_the_bound_is_proved_keeps_the_first_roster() -> None:
+    ws = load_workspace(DEMO / "clinic")
+    cancel = threading.Event()
+
+    def cancel_while_bounding(p: SolveProgress) -> None:
+        if p.stage == "bound" and p.elapsed > 1.0:
+            cancel.set()
+
+    out = solve(ws, SolveOptions(time_limit=120, workers=2),
+                on_progress=cancel_while_bounding, cancel=cancel)
+    assert cancel.is_set() and out.seconds < 30
+    assert out.decomposition is not None and out.decomposition.seconds < 10
+    assert out.roster is not None and check_roster(ws, out.roster).compliant
 
 
 def test_warm_start_from_the_current_roster_never_starts_worse(tmp_path: Path) -> None:
