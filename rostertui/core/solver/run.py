@@ -230,6 +230,15 @@ def _hint(built: Built, budget: float) -> None:
     hint.values.extend(values[key] for key in cells.x)
 
 
+def _hint_rows(built: Built, rows: dict[int, tuple[str, ...]]) -> None:
+    """Hint the search with a row per person (the master LP's heaviest column): a
+    start near the relaxation's optimum, which CP-SAT repairs where the rows clash."""
+    for (p, d, code), var in built.cells.x.items():
+        row = rows.get(p)
+        if row is not None:
+            built.model.add_hint(var, int(row[d] == code))
+
+
 def _fixed(built: Built, values: dict[tuple[int, int, str], int]) -> cp_model.CpModel:
     """A copy of the model with every cell fixed to `values` (in its domain, which is
     much quicker to write and to presolve than one equality per cell: on 2014 people
@@ -301,6 +310,8 @@ def solve(
     if options.decompose and keep is None:
         decomposition = _decompose(ws, built, options, recorder, left(), cancel)
         phases["decompose"] = decomposition.seconds
+        if not built.model.proto.solution_hint.vars:  # no roster to start from
+            _hint_rows(built, decomposition.heaviest())
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)

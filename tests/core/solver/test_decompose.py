@@ -175,3 +175,12 @@ def test_solve_reports_the_bound_and_referees_it(tmp_path: Path,
     monkeypatch.setattr(run, "decompose", inflated)
     with pytest.raises(RefereeError, match="decomposition bound"):
         solve(ws, SolveOptions(time_limit=10, workers=2, warm_start=False))
+
+
+def test_a_pricing_bound_is_never_rounded_up() -> None:
+    from rostertui.core.solver.decompose.pricing import floor_safely
+
+    assert floor_safely(5.0) == 5 and floor_safely(-3.5) == -4
+    big = float(2**60 + 2**10)  # beyond the floats that hold every integer
+    assert floor_safely(big) <= 2**60 + 2**10
+    assert floor_safely(-big) <= -(2**60 + 2**10)

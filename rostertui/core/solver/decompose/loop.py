@@ -65,7 +65,16 @@ class Decomposition:
     iterations: int = 0
     seconds: float = 0.0
     columns: list[Column] = field(default_factory=list)
+    weights: list[float] = field(default_factory=list)  # each column's weight in the master
     history: list[DecompositionProgress] = field(default_factory=list)
+
+    def heaviest(self) -> dict[int, tuple[str, ...]]:
+        """Per person (index), the row the master LP weighs most (a start for the search)."""
+        best: dict[int, tuple[float, tuple[str, ...]]] = {}
+        for column, weight in zip(self.columns, self.weights, strict=False):
+            if column.person not in best or weight > best[column.person][0]:
+                best[column.person] = (weight, column.codes)
+        return {p: codes for p, (_, codes) in best.items()}
 
 
 class _Run:
@@ -285,6 +294,7 @@ def decompose(
             out.converged = True
             break
     out.columns = master.columns
+    out.weights = master.weights()
     out.seconds = time.monotonic() - started
     return out
 

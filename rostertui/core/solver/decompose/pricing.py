@@ -26,6 +26,14 @@ from rostertui.core.solver.balance import metric_of
 from rostertui.core.solver.model import Built, build_model
 
 
+def floor_safely(value: float) -> int:
+    """An integer at or below the integer CP-SAT reports as `value`: exact while floats
+    hold integers exactly (below 2**52), and lowered by the float's own error above."""
+    if abs(value) < 2.0**52:
+        return math.floor(value)
+    return math.floor(value - abs(value) * 2.0**-50)
+
+
 def one_person(ws: Workspace, pid: str) -> Workspace:
     """`ws` cut to one person: their rules (scoped to them alone), no cover, no balance."""
     rules = [dataclasses.replace(eff, people=(pid,)) for eff in ws.rules
@@ -137,12 +145,12 @@ class PersonModel:
         if status == cp_model.INFEASIBLE:
             return Priced(Fraction(0), [], True, False)
         unit = scale * f
-        if status == cp_model.OPTIMAL:
-            return Priced(Fraction(round(solver.objective_value), unit), rows.found, True, True)
-        found = solver.best_objective_bound  # stopped by time: CP-SAT's proven bound
-        lower = Fraction(math.floor(found), unit) if math.isfinite(found) else None
-        return Priced(max(lower, self.trivial(duals, balance, scale)) if lower is not None
-                      else self.trivial(duals, balance, scale), rows.found, False, True)
+        optimal = status == cp_model.OPTIMAL
+        found = solver.best_objective_bound  # CP-SAT's proven bound (= the optimum if optimal)
+        trivial = self.trivial(duals, balance, scale)
+        if not math.isfinite(found):
+            return Priced(trivial, rows.found, optimal, True)
+        return Priced(max(trivial, Fraction(floor_safely(found), unit)), rows.found, optimal, True)
 
     def trivial(self, duals: dict[tuple[int, str], int], balance: dict[int, int], scale: int
                 ) -> Fraction:
