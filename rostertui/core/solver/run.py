@@ -310,7 +310,11 @@ def solve(
     if options.decompose and keep is None:
         decomposition = _decompose(ws, built, options, recorder, left(), cancel)
         phases["decompose"] = decomposition.seconds
-        if not built.model.proto.solution_hint.vars:  # no roster to start from
+        # with no roster to start from, the converged master's rows are a good start
+        # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
+        # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
+        # 768 against 652 at 60 s)
+        if decomposition.converged and not built.model.proto.solution_hint.vars:
             _hint_rows(built, decomposition.heaviest())
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
