@@ -113,13 +113,12 @@ def _sentence(err: dict[str, Any], known_keys: Sequence[str]) -> str:
     last = loc[-1] if loc else ""
     value = err.get("input")
     if kind == "extra_forbidden":
-        keys = [k for k in known_keys if k != last]
         if str(last) == "include":
             return ("key 'include' is not allowed here: only unit.toml lists presets, at its "
                     "top level, and a preset cannot include another")
         if str(last) in known_keys:
             return f"key '{last}' is not allowed here (it belongs to another table)"
-        hint = difflib.get_close_matches(str(last), keys, n=1, cutoff=0.7)
+        hint = difflib.get_close_matches(str(last), known_keys, n=1, cutoff=0.7)
         tip = f" (did you mean '{hint[0]}'?)" if hint else ""
         return f"unknown key '{last}'{tip}"
     if kind == "missing":

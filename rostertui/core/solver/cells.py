@@ -7,6 +7,7 @@ period come from history as constants; without history a person is off there.
 
 from __future__ import annotations
 
+from collections.abc import Sequence
 from dataclasses import dataclass, field
 from datetime import date, timedelta
 
@@ -164,6 +165,14 @@ class Cells:
         if d >= self.n:
             return False
         return self.on(p, d, frozenset(self.codes))
+
+    def hint_rows(self, rows: dict[int, Sequence[str]]) -> None:
+        """Hint the search with a row of codes per person (index): a start that CP-SAT
+        completes, or repairs where the rows break a rule."""
+        for (p, d, code), var in self.x.items():
+            row = rows.get(p)
+            if row is not None:
+                self.model.add_hint(var, int(row[d] == code))
 
     def cell(self, p: int, d: int) -> list[tuple[str, cp_model.IntVar]]:
         return [(c, self.x[p, d, c]) for c in self.codes if (p, d, c) in self.x]

@@ -230,15 +230,6 @@ def _hint(built: Built, budget: float) -> None:
     hint.values.extend(values[key] for key in cells.x)
 
 
-def _hint_rows(built: Built, rows: dict[int, tuple[str, ...]]) -> None:
-    """Hint the search with a row per person (the master LP's heaviest column): a
-    start near the relaxation's optimum, which CP-SAT repairs where the rows clash."""
-    for (p, d, code), var in built.cells.x.items():
-        row = rows.get(p)
-        if row is not None:
-            built.model.add_hint(var, int(row[d] == code))
-
-
 def _fixed(built: Built, values: dict[tuple[int, int, str], int]) -> cp_model.CpModel:
     """A copy of the model with every cell fixed to `values` (in its domain, which is
     much quicker to write and to presolve than one equality per cell: on 2014 people
@@ -315,7 +306,7 @@ def solve(
         # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
         # 768 against 652 at 60 s)
         if decomposition.converged and not built.model.proto.solution_hint.vars:
-            _hint_rows(built, decomposition.heaviest())
+            built.cells.hint_rows(decomposition.heaviest())
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
@@ -391,7 +382,7 @@ def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Re
     recorder.stage = "bound"
 
     def progress(p: DecompositionProgress) -> None:
-        if p.bound is not None and not (recorder.dw_bound or 0) >= p.bound:
+        if p.bound is not None and p.bound > (recorder.dw_bound or 0):
             recorder.dw_bound = p.bound
         recorder.report(time.monotonic() - recorder.started)
 

@@ -50,7 +50,7 @@ def one_person(ws: Workspace, pid: str) -> Workspace:
 class Metric:
     """One person's value of one balance rule's metric, in the person's model."""
 
-    rule: int  # index of the balance rule (Balances.rules)
+    rule: int  # index of the balance rule in the list PersonModel was given
     expr: cp_model.LinearExprT
     divisor: int  # the expression's value / divisor = the metric (hours are scaled)
     lo: Fraction
@@ -134,8 +134,7 @@ class PersonModel:
         model.minimize(scale * f * self.own - f * value + extra)
         model.clear_hints()
         if hint is not None:
-            for (_, d, code), var in cells.items():
-                model.add_hint(var, int(hint[d] == code))
+            self.built.cells.hint_rows({0: hint})
         solver = cp_model.CpSolver()
         solver.parameters.num_workers = 1
         solver.parameters.random_seed = seed
