@@ -70,11 +70,12 @@ def run_alone(name: str, limit: float, workers: int, seed: int, out: mp.Queue) -
     result = decompose(ws, deadline=started + limit, workers=workers, seed=seed)
     seconds = time.monotonic() - started
     # Today's bound without the decomposition, for comparison: the compact model's LP
-    # relaxation (GLOP), given the same limit after the decomposition.
+    # relaxation (GLOP), given what `solve` gives it (lp_share of the limit) afterwards.
+    from rostertui.core.solver import SolveOptions
     from rostertui.core.solver.lp_bound import Relaxation
     from rostertui.core.solver.model import build_model
 
-    lp = Relaxation(build_model(ws).model).solve(limit)
+    lp = Relaxation(build_model(ws).model).solve(SolveOptions().lp_share * limit)
     out.put({
         "instance": name, "bound": result.bound, "converged": result.converged,
         "lp": lp, "wall": round(seconds, 1),

@@ -18,7 +18,7 @@ from rostertui.core.io.load import load_workspace
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, SolveOutcome, SolveProgress, solve
 from rostertui.core.solver.model import estimate_build
-from rostertui.core.solver.summary import bound_sources
+from rostertui.core.solver.summary import bound_sources, improvement_story
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
@@ -84,6 +84,8 @@ def format_progress(p: SolveProgress) -> str:
     text = f"{p.elapsed:7.1f} s  penalty {p.penalty:>8}  bound {p.bound:>8}  gap {gap:6.1%}"
     if p.changes is not None:
         text += f"  cells changed {p.changes:>4}"
+    if p.found_by is not None:
+        text += f"  by {p.found_by}"
     return text
 
 
@@ -182,6 +184,7 @@ def summary(ws: Workspace, outcome: SolveOutcome) -> str:
         f"  status {outcome.status}: penalty {outcome.objective}, bound {outcome.bound} "
         f"({proven}), {outcome.seconds:.1f} s",
         f"  bounds: {bound_sources(outcome)}",
+        f"  found by: {improvement_story(outcome)}",
         "  every hard rule kept" if check.compliant
         else f"  {check.hard_violations} hard violations",
     ]

@@ -34,9 +34,11 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
+from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import Built, build_model
+from rostertui.core.solver.primal import Incumbent, improve
 
 
 class RefereeError(RosterError):
@@ -53,6 +55,12 @@ class SolveOptions:
     lp_share: float = 0.2  # at most this share of the time left (after build and hint) for the LP
     decompose: bool = True  # a bound by column generation (decompose/), before the search
     decompose_share: float = 0.3  # at most this share of the time left for it
+    # the primal heuristics from the decomposition (primal/), after it and before the
+    # CP-SAT search: this share of the time then left, the integer master over the pool
+    # taking `pool_share` of that, RINS the rest
+    primal: bool = True
+    primal_share: float = 0.5
+    pool_share: float = 0.3
     log: bool = False
     # time.monotonic() by which the whole solve should be over (build, hint, LP, search,
     # polish, referee); None: time_limit from the call. A caller passes its own start +
@@ -67,6 +75,7 @@ class SolveProgress:
     bound: int  # proven lower bound on the penalty
     changes: int | None = None  # repair: cells the best roster changes
     stage: str = "search"  # or "bound": column generation is proving the bound
+    found_by: str | None = None  # the method that found the best roster so far
 
 
 @dataclass
@@ -87,6 +96,9 @@ class SolveOutcome:
     phases: dict[str, float] = field(default_factory=dict)  # seconds each phase took
     bounds: dict[str, int] = field(default_factory=dict)  # each method's proven bound
     decomposition: Decomposition | None = None  # the column generation's result
+    # every better roster on the way: (seconds into the search, penalty, method)
+    improvements: list[tuple[float, int, str]] = field(default_factory=list)
+    found_by: str | None = None  # the method that found the roster returned
 
     @property
     def gap(self) -> float | None:
@@ -98,6 +110,8 @@ class SolveOutcome:
 
 
 ProgressCallback = Callable[[SolveProgress], None]
+SEARCH = "CP-SAT search"  # the method name of rosters the main search finds
+WARM_START = "warm start"  # the workspace's own roster
 
 # -- the time budget --------------------------------------------------------------------
 MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a small unit's
@@ -142,11 +156,15 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
         self.cp_bound = 0
         self.stage = "search"
         self.lock = threading.Lock()
+        self.best_method: str | None = None
+        self.improvements: list[tuple[float, int, str]] = []
 
     def on_solution_callback(self) -> None:
         elapsed = time.monotonic() - self.started
         objective = round(self.objective_value)
         if self.best_objective is None or objective <= self.best_objective:
+            if self.best_objective is None or objective < self.best_objective:
+                self._improved(elapsed, objective, SEARCH)
             self.best = {key: self.value(var) for key, var in self.built.cells.x.items()}
             self.best_objective = objective
             self.best_changes = sum(self.boolean_value(lit) for lit in self.built.changes)
@@ -158,6 +176,28 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
             self.stop_search()
         if self.proven is not None and objective <= self.proven:
             self.stop_search()  # proven optimal by the LP or the decomposition bound
+
+    def _improved(self, elapsed: float, objective: int, method: str) -> None:
+        self.best_method = method
+        self.improvements.append((round(elapsed, 3), objective, method))
+
+    def offer(self, values: Values, objective: int, method: str) -> None:
+        """A roster found outside the CP-SAT search (warm start, primal heuristics),
+        its exact objective or an upper end of it; kept when it is better."""
+        elapsed = time.monotonic() - self.started
+        with self.lock:
+            if self.best_objective is not None and objective >= self.best_objective:
+                return
+            self._improved(elapsed, objective, method)
+            self.best, self.best_objective, self.best_seconds = values, objective, elapsed
+            if self.first_seconds is None:
+                self.first_seconds = elapsed
+        self.report(elapsed)
+
+    def should_stop(self, objective: int) -> bool:
+        """Cancelled, or `objective` meets the proven bound."""
+        return (self.cancel is not None and self.cancel.is_set()) or (
+            self.proven is not None and objective <= self.proven)
 
     @property
     def proven(self) -> int | None:
@@ -177,7 +217,8 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
                 cost = self.built.change_cost(changes)
                 best = max(0, best - cost) if penalty is not None else 0
                 penalty = penalty - cost if penalty is not None else None
-            progress = SolveProgress(elapsed, penalty, best, changes, self.stage)
+            progress = SolveProgress(elapsed, penalty, best, changes, self.stage,
+                                     self.best_method)
             self.history.append(progress)
         if self.on_progress is not None:
             self.on_progress(progress)
@@ -193,62 +234,32 @@ def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster
     return Roster(start=cells.start, days=cells.n, rows=rows, lock=locks)
 
 
-def _hint(built: Built, budget: float) -> None:
+def _hint(built: Built, budget: float) -> Incumbent | None:
     """Warm start from the workspace's current roster, within `budget` seconds.
 
     The roster's cells alone leave CP-SAT to complete every auxiliary variable, which
     it often fails to do in time; so the roster is first fixed and solved (a matter
-    of propagation), and the complete assignment becomes the hint. A roster that
-    breaks a hard rule cannot be completed, and with too little time it is not tried:
-    then its cells are hinted as they are.
+    of propagation), and the complete assignment becomes the hint, and the roster the
+    first incumbent (returned). A roster that breaks a hard rule cannot be completed,
+    and with too little time it is not tried: then its cells are hinted as they are.
     """
     roster = built.cells.ws.roster
     if roster is None:
-        return
+        return None
     started = time.monotonic()
     cells = built.cells
-    values: dict[tuple[int, int, str], int] = {}
-    for key in cells.x:
-        p, d, code = key
-        row = roster.rows.get(cells.people[p])
-        values[key] = int(row is not None and d < len(row) and row[d] == code)
-    hint = built.model.proto.solution_hint
+    values = values_of(built, {p: roster.rows.get(pid, ()) for p, pid in enumerate(cells.people)})
     size = len(built.model.proto.constraints)
     if budget > FIX_PER_CONSTRAINT * size + SEARCH_OVERHEAD_PER_CONSTRAINT * size + 0.1:
-        fixed = _fixed(built, values)
-        solver = cp_model.CpSolver()
-        solver.parameters.num_workers = 1
-        solver.parameters.max_time_in_seconds = max(0.05, min(
-            HINT_CAP, budget - (time.monotonic() - started)
-            - SEARCH_OVERHEAD_PER_CONSTRAINT * size))
-        if solver.solve(fixed) in (cp_model.OPTIMAL, cp_model.FEASIBLE):
-            solution = list(solver.response_proto.solution)
-            hint.vars.extend(range(len(solution)))
-            hint.values.extend(solution)
-            return
+        exact = evaluate(built, values, min(HINT_CAP, budget - (time.monotonic() - started)
+                                            - SEARCH_OVERHEAD_PER_CONSTRAINT * size))
+        if exact is not None:
+            hint_solution(built.model, exact[1])
+            return Incumbent(values, exact[0], exact[1])
+    hint = built.model.proto.solution_hint
     hint.vars.extend(var.index for var in cells.x.values())
     hint.values.extend(values[key] for key in cells.x)
-
-
-def _fixed(built: Built, values: dict[tuple[int, int, str], int]) -> cp_model.CpModel:
-    """A copy of the model with every cell fixed to `values` (in its domain, which is
-    much quicker to write and to presolve than one equality per cell: on 2014 people
-    polish takes 1.05 s, 0.4 of it solving, instead of 4.7 s, 4.3 of it solving)."""
-    fixed = built.model.clone()
-    fixed.clear_hints()
-    variables = fixed.proto.variables
-    clash = False
-    for key, var in built.cells.x.items():
-        value = values[key]
-        domain = variables[var.index].domain
-        if not any(domain[i] <= value <= domain[i + 1] for i in range(0, len(domain), 2)):
-            clash = True  # a value the cell cannot take: no completion
-            continue
-        domain.clear()
-        domain.extend([value, value])
-    if clash:
-        fixed.add_bool_or([])
-    return fixed
+    return None
 
 
 def solve(
@@ -277,12 +288,15 @@ def solve(
     def left() -> float:
         return deadline - time.monotonic() - finish
 
+    incumbent = None
     if options.warm_start:
         t = time.monotonic()
-        _hint(built, HINT_SHARE * left())
+        incumbent = _hint(built, HINT_SHARE * left())
         phases["hint"] = time.monotonic() - t
     started = time.monotonic()
     recorder = _Recorder(built, started, on_progress, cancel)
+    if incumbent is not None and keep is None:
+        recorder.offer(incumbent.values, incumbent.objective, WARM_START)
     if options.lp_bound and keep is None:
         recorder.report(0.0)  # something to show while the LP is solved
         # Before the search, not beside it: a GLOP thread next to the CP-SAT workers
@@ -298,6 +312,7 @@ def solve(
         phases["lp"] = time.monotonic() - started
         recorder.report(time.monotonic() - started)
     decomposition = None
+    floor = None  # the proven bound as the objective's floor, for the search only
     if options.decompose and keep is None:
         decomposition = _decompose(ws, built, options, recorder, left(), cancel)
         phases["decompose"] = decomposition.seconds
@@ -305,8 +320,23 @@ def solve(
         # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
         # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
         # 768 against 652 at 60 s)
-        if decomposition.converged and not built.model.proto.solution_hint.vars:
+        if options.primal and decomposition.columns:
+            t = time.monotonic()
+            recorder.stage = "improve"
+            incumbent = improve(
+                built, decomposition, incumbent,
+                deadline=t + max(0.0, options.primal_share * left()),
+                pool_share=options.pool_share, workers=options.workers or os.cpu_count() or 1,
+                seed=options.seed, offer=recorder.offer, stop=recorder.should_stop,
+                cancel=cancel)
+            recorder.stage = "search"
+            phases["improve"] = time.monotonic() - t
+        if incumbent is not None:
+            hint_solution(built.model, incumbent.solution)
+        elif decomposition.converged and not built.model.proto.solution_hint.vars:
             built.cells.hint_rows(decomposition.heaviest())
+        if recorder.proven is not None:  # the search need not prove what is proven
+            floor = built.model.add(built.build.objective() >= recorder.proven)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
@@ -320,26 +350,34 @@ def solve(
     solver.parameters.linearization_level = 2
     solver.best_bound_callback = lambda bound: recorder.report(
         time.monotonic() - started, round(bound))
-    stop_watch = _watch_cancel(solver, cancel, recorder)
-    try:
-        code = solver.solve(built.model, recorder)
-    finally:
-        if stop_watch is not None:
-            stop_watch.set()
+    searched = not (recorder.best is not None and recorder.should_stop(recorder.best_objective))
+    code = cp_model.FEASIBLE
+    if searched:
+        stop_watch = _watch_cancel(solver, cancel, recorder)
+        try:
+            code = solver.solve(built.model, recorder)
+        finally:
+            if stop_watch is not None:
+                stop_watch.set()
+    if floor is not None:  # lifted: polish scores the roster by the rules alone
+        domain = floor.proto.linear.domain
+        domain.clear()
+        domain.extend([cp_model.INT_MIN, cp_model.INT_MAX])
     seconds = time.monotonic() - started
-    phases["search"] = seconds - phases.get("lp", 0.0) - phases.get("decompose", 0.0)
+    phases["search"] = seconds - sum(phases.get(k, 0.0) for k in ("lp", "decompose", "improve"))
     status = {
         cp_model.OPTIMAL: "optimal",
         cp_model.FEASIBLE: "feasible",
         cp_model.INFEASIBLE: "infeasible",
         cp_model.MODEL_INVALID: "unknown",
     }.get(code, "unknown")
+    cp_bound = round(solver.best_objective_bound) if searched else 0
     outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
                            build_seconds=build_seconds, history=recorder.history,
-                           phases=phases, decomposition=decomposition)
+                           phases=phases, decomposition=decomposition,
+                           improvements=recorder.improvements, found_by=recorder.best_method)
     outcome.bounds = {name: b for name, b in (
-        ("cp-sat", max(0, round(solver.best_objective_bound))
-         if recorder.best and keep is None else None),
+        ("cp-sat", max(0, cp_bound) if recorder.best and searched and keep is None else None),
         ("lp", recorder.lp_bound), ("decomposition", recorder.dw_bound)) if b is not None}
     if recorder.best is None:
         if status in ("optimal", "feasible"):
@@ -351,7 +389,7 @@ def solve(
     t = time.monotonic()
     total, changes = polish(built, recorder.best)
     phases["polish"] = time.monotonic() - t
-    bound = max(round(solver.best_objective_bound), recorder.proven or 0)
+    bound = max(cp_bound, recorder.proven or 0)
     for name in ("lp", "decomposition"):  # a bound is a promise: never above a roster
         if name in outcome.bounds and total - built.change_cost(changes) < outcome.bounds[name]:
             raise RefereeError(f"the {name} bound {outcome.bounds[name]} lies above the "
@@ -404,7 +442,7 @@ def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, 
     the objective (penalty plus any change cost) and the number of changed cells
     the objective counts (repair; 0 otherwise).
     """
-    fixed = _fixed(built, values)
+    fixed = fixed_copy(built, values)
     solver = cp_model.CpSolver()
     solver.parameters.num_workers = 1
     solver.parameters.max_time_in_seconds = POLISH_CAP

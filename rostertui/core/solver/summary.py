@@ -21,3 +21,17 @@ def bound_sources(outcome: SolveOutcome) -> str:
         text += f" (column generation {state} after {dw.iterations} iterations, " \
                 f"{dw.seconds:.1f} s)"
     return text
+
+
+def improvement_story(outcome: SolveOutcome) -> str:
+    """Which method found each better roster: 'warm start 652 at 0.0 s, CP-SAT search
+    640 at 3.2 s, RINS 612 at 20.1 s' (a run of one method's gains as its last one)."""
+    steps: list[tuple[float, int, str]] = []
+    for seconds, penalty, method in outcome.improvements:
+        if steps and steps[-1][2] == method:
+            steps[-1] = (seconds, penalty, method)
+        else:
+            steps.append((seconds, penalty, method))
+    if not steps:
+        return "none"
+    return ", ".join(f"{method} {penalty} at {seconds:.1f} s" for seconds, penalty, method in steps)

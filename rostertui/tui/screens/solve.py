@@ -29,7 +29,7 @@ from textual.widget import Widget
 from textual.widgets import Button, Input, Label, Sparkline, Static
 from textual.worker import Worker, WorkerState
 
-from rostertui.core.solver.summary import bound_sources
+from rostertui.core.solver.summary import bound_sources, improvement_story
 from rostertui.tui.messages import ProgressRelay, RosterSolved, SolveProgressed
 from rostertui.tui.state import Session, changed_cells
 
@@ -42,7 +42,8 @@ class SolveSettings:
 
 
 def progress_text(elapsed: float, penalty: int | None, bound: int | None,
-                  changes: int | None = None, stage: str = "search") -> Text:
+                  changes: int | None = None, stage: str = "search",
+                  found_by: str | None = None) -> Text:
     text = Text.assemble(("elapsed ", "#8d99a6"), (f"{elapsed:6.1f} s", "bold"))
     if penalty is None and stage == "bound":
         text.append("   proving a bound (column generation)…", style="#f4b942")
@@ -61,6 +62,9 @@ def progress_text(elapsed: float, penalty: int | None, bound: int | None,
     if changes is not None and penalty is not None:
         text.append("   cells changed ", style="#8d99a6")
         text.append(f"{changes}", style="bold #45b5c9")
+    if found_by is not None and penalty is not None:
+        text.append("   by ", style="#8d99a6")
+        text.append(found_by, style="bold #45b5c9")
     return text
 
 
@@ -89,6 +93,7 @@ class SearchScreen(ModalScreen[None]):
         self.last_penalty: int | None = None
         self.last_bound: int | None = None
         self.last_stage = "search"
+        self.last_found_by: str | None = None
         self.last_changes: int | None = None
         self.penalties: list[float] = []
         self.summary = ""
@@ -207,7 +212,7 @@ class SearchScreen(ModalScreen[None]):
             elapsed = time.monotonic() - self.started
             self.query_one("#progress", Static).update(
                 progress_text(elapsed, self.last_penalty, self.last_bound, self.last_changes,
-                              self.last_stage))
+                              self.last_stage, self.last_found_by))
 
     @on(SolveProgressed)
     def _progressed(self, event: SolveProgressed) -> None:
@@ -218,6 +223,9 @@ class SearchScreen(ModalScreen[None]):
         if p.penalty is not None and (not self.penalties or self.penalties[-1] != p.penalty):
             self.penalties.append(float(p.penalty))
             self.query_one(Sparkline).data = list(self.penalties[-200:])
+            if p.found_by is not None and p.found_by != self.last_found_by:
+                self.say(f"{p.elapsed:.1f} s: penalty {p.penalty}, found by {p.found_by}")
+        self.last_found_by = p.found_by
         self._tick()
 
     def action_stop_or_close(self) -> None:
@@ -331,6 +339,7 @@ class SolveScreen(SearchScreen):
             f"{before_check.penalty} -> {check.penalty}; hard violations "
             f"{before_check.hard_violations} -> {check.hard_violations}; "
             f"{outcome.seconds:.1f} s. Bounds: {bound_sources(outcome)}. "
+            f"Found by: {improvement_story(outcome)}. "
             "The new roster is in the grid, not saved yet.")
         self.say(Text(self.summary, style="bold"))
         self.post_message(RosterSolved(outcome))

@@ -39,9 +39,9 @@ def slow_build(monkeypatch: pytest.MonkeyPatch) -> dict[str, list[float]]:
 
     real_hint, real_relaxation = run._hint, run.Relaxation
 
-    def hint(built: run.Built, budget: float) -> None:
+    def hint(built: run.Built, budget: float):  # noqa: ANN202
         seen["hint"].append(budget)
-        real_hint(built, budget)
+        return real_hint(built, budget)
 
     class Relaxation(real_relaxation):  # type: ignore[misc, valid-type]
         def solve(self, time_limit: float) -> int | None:

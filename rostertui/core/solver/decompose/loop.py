@@ -66,6 +66,11 @@ class Decomposition:
     seconds: float = 0.0
     columns: list[Column] = field(default_factory=list)
     weights: list[float] = field(default_factory=list)  # each column's weight in the master
+    # rows pricing found that did not price out (never in the master): more rows for the
+    # integer master over the pool (primal/pool.py) to fit together
+    spare: list[Column] = field(default_factory=list)
+    cover: list[CoverRow] = field(default_factory=list)  # the master's cover rows
+    balances: list[BalanceRow] = field(default_factory=list)  # and its balance rows
     history: list[DecompositionProgress] = field(default_factory=list)
 
     def heaviest(self) -> dict[int, tuple[str, ...]]:
@@ -97,6 +102,7 @@ class _Run:
         weights += [r.weight for r in ws.requests.request]
         self.big = 10.0 * max(weights)
         self.balance_rows: list[BalanceRow] = []
+        self.spare: dict[tuple[int, tuple[str, ...]], Column] = {}
 
     def build(self, deadline: float, cancel: threading.Event | None) -> bool:
         for pid in self.people:
@@ -112,9 +118,11 @@ class _Run:
         return True
 
     def price(self, point: Point, limit: float,
-              stop: Callable[[], bool] = lambda: False) -> list[Priced]:
-        """Price everyone at `point`; once `stop()` holds (cancel, deadline), the rest
-        get the bound that needs no search, so the round's bound stays valid."""
+              stop: Callable[[], bool] = lambda: False,
+              only: list[int] | None = None) -> list[Priced]:
+        """Price everyone (or the people `only`) at `point`; once `stop()` holds
+        (cancel, deadline), the rest get the bound that needs no search, so the
+        round's bound stays valid."""
         cover: list[dict[tuple[int, str], int]] = [{} for _ in self.people]
         for (p, d, code), found in self.row_of.items():
             value = sum(point.cover[i] for i in found)
@@ -132,10 +140,11 @@ class _Run:
                 return Priced(pm.trivial(cover[p], balance[p], SCALE), [], False, True)
             return pm.price(cover[p], balance[p], SCALE, limit, self.hints[p], self.seed)
 
+        people = list(range(len(self.people))) if only is None else only
         if self.workers == 1:
-            return [one(p) for p in range(len(self.people))]
+            return [one(p) for p in people]
         with ThreadPoolExecutor(self.workers, thread_name_prefix="rostertui-price") as pool:
-            return list(pool.map(one, range(len(self.people))))
+            return list(pool.map(one, people))
 
     def bound(self, point: Point, priced: list[Priced]) -> Fraction:
         """L at `point`: exact, and valid for any point with nonnegative balance duals."""
@@ -241,6 +250,8 @@ def decompose(
                 if duals is None or _reduced(column, duals) < -1e-6 * max(
                         1.0, abs(duals.convexity[p])):
                     added += master.add(column)
+                else:
+                    run.spare.setdefault((p, row.codes), column)
             if x.rows:
                 run.hints[p] = x.rows[-1].codes
         return added
@@ -248,6 +259,19 @@ def decompose(
     zero = Point([Fraction(0)] * len(rows), dict.fromkeys(master.upper, Fraction(0)),
                  dict.fromkeys(master.lower, Fraction(0)))
     priced = run.price(zero, limit(), stopped)
+    cap = PRICE_CAP
+    while not stopped() and all(x.feasible for x in priced):
+        # someone's first row takes longer than a round gives (Curtois-Qu 18, 84 days):
+        # price them alone again, with twice the time each try, until the deadline
+        missing = [p for p, x in enumerate(priced) if not x.rows and not x.optimal]
+        if not missing:
+            break
+        cap *= 2
+        again = run.price(zero, max(0.05, min(cap, deadline - time.monotonic())), stopped,
+                          missing)
+        for p, x in zip(missing, again, strict=True):
+            priced[p] = x if x.lower >= priced[p].lower or not x.feasible else \
+                Priced(priced[p].lower, x.rows, x.optimal, x.feasible)
     if any(not x.feasible for x in priced):
         out.infeasible = True
         out.seconds = time.monotonic() - started
@@ -295,6 +319,8 @@ def decompose(
             break
     out.columns = master.columns
     out.weights = master.weights()
+    out.spare = [c for key, c in run.spare.items() if not master.has(key)]
+    out.cover, out.balances = rows, run.balance_rows
     out.seconds = time.monotonic() - started
     return out
 

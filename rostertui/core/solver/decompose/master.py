@@ -112,6 +112,10 @@ class Master:
         for art in self.artificial:
             objective.SetCoefficient(art, big)
 
+    def has(self, key: tuple[int, tuple[str, ...]]) -> bool:
+        """Whether the master holds the row `key` = (person, codes)."""
+        return key in self._seen
+
     def add(self, column: Column) -> bool:
         """Add a column unless the same row of the same person is already there."""
         key = (column.person, column.codes)
