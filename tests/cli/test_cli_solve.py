@@ -68,6 +68,8 @@ def test_the_summary_names_each_bound_and_no_decompose_leaves_it_out(
     assert main(["solve", str(ws), "--time-limit", "10", "--workers", "2"]) == 0
     out = capsys.readouterr().out
     assert "bounds: " in out and "column generation" in out
+    found = next(line for line in out.splitlines() if line.startswith("  found by: "))
+    assert any(m in found for m in ("CP-SAT search", "integer master", "RINS", "warm start"))
     assert main(["solve", str(ws), "--time-limit", "5", "--workers", "2", "--no-decompose"]) == 0
     out = capsys.readouterr().out
     assert "bounds: " in out and "column generation" not in out
@@ -80,3 +82,5 @@ def test_the_progress_line_says_when_the_bound_is_being_proved() -> None:
     assert "proving a bound" in format_progress(SolveProgress(1.0, None, 412, stage="bound"))
     assert "bound      412" in format_progress(SolveProgress(2.0, 500, 412))
     assert "searching for a first roster" in format_progress(SolveProgress(1.0, None, 412))
+    assert format_progress(SolveProgress(2.0, 500, 412, found_by="RINS")).endswith("by RINS")
+    assert " by " not in format_progress(SolveProgress(2.0, 500, 412))

@@ -47,6 +47,7 @@ def test_solve_shows_progress_replaces_the_grid_and_saves(clinic: Path) -> None:
             assert f"{changed} cells changed" in screen.summary
             assert f"-> {session.check.penalty};" in screen.summary
             assert "Bounds: " in screen.summary and "column generation" in screen.summary
+            assert "Found by: " in screen.summary
             await pilot.press("escape")
             assert isinstance(app.screen, RosterScreen)
             assert set(row_text(grid_of(app), "c01").split()) & {"E", "L", "N"}
@@ -111,3 +112,5 @@ def test_the_progress_text_says_when_the_bound_is_being_proved() -> None:
     assert "proving a bound" in str(progress_text(1.0, None, 412, stage="bound"))
     assert "searching for a first roster" in str(progress_text(1.0, None, 412))
     assert "penalty 500" in str(progress_text(2.0, 500, 412, stage="bound"))
+    assert "by integer master" in str(progress_text(2.0, 500, 412, found_by="integer master"))
+    assert " by " not in str(progress_text(2.0, None, 412, found_by="RINS"))

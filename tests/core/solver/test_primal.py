@@ -17,6 +17,7 @@ import threading
 import time
 from pathlib import Path
 
+import pytest
 from hypothesis import given, settings
 from hypothesis import strategies as st
 
@@ -206,3 +207,49 @@ def test_curtois_qu_5_comes_within_2_percent_of_the_best_known() -> None:
     ws.roster = None
     out = solve(ws, SolveOptions(time_limit=40, workers=2))
     assert out.objective is not None and out.objective <= 1143 * 1.02
+
+
+def test_the_pool_is_not_searched_when_the_master_cannot_meet_cover(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """With the master's artificial variables in use no mix of the pool's rows meets
+    the cover minimums, so the integer master cannot find a roster: it is skipped and
+    its time left to the search."""
+    ws = load_workspace(FIXTURES / "good")
+    ws.roster = None
+    dw = decompose(ws, deadline=time.monotonic() + 30, workers=2)
+    assert dw.columns and dw.artificial <= portfolio.ARTIFICIAL
+    calls: list[int] = []
+    monkeypatch.setattr(portfolio, "integer_master",
+                        lambda *args, **kw: calls.append(1) or False)
+    built = build_model(ws)
+    kw = dict(deadline=time.monotonic() + 1, pool_share=0.5, workers=1, seed=0,
+              offer=lambda *a: None, stop=lambda objective: False)
+    portfolio.improve(built, dw, None, **kw)
+    assert calls == [1]
+    dw.artificial = 1.0
+    portfolio.improve(built, dw, None, **kw)
+    assert calls == [1]
+
+
+def test_a_person_whose_first_row_is_slow_is_priced_again(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """The first pricing round may end before a person's model finds any row (on 84
+    days it took longer than a round's 5 s); that person is priced again with more
+    time instead of column generation giving up with no bound."""
+    from rostertui.core.solver.decompose import pricing
+    from rostertui.core.solver.decompose.pricing import Priced
+
+    ws = load_workspace(FIXTURES / "good")
+    real = pricing.PersonModel.price
+    seen: list[float] = []
+
+    def slow_first(self, duals, balance, scale, time_limit, hint=None, seed=0):  # noqa: ANN001, ANN202
+        if self.pid == ws.person_ids[0] and not seen:
+            seen.append(time_limit)
+            return Priced(self.trivial(duals, balance, scale), [], False, True)
+        return real(self, duals, balance, scale, time_limit, hint, seed)
+
+    monkeypatch.setattr(pricing.PersonModel, "price", slow_first)
+    dw = decompose(ws, deadline=time.monotonic() + 30, workers=1)
+    assert seen and dw.columns and dw.converged
+    assert any(c.person == 0 for c in dw.columns)

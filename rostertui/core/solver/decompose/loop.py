@@ -60,6 +60,9 @@ class Decomposition:
     bound: int | None = None  # proven: no roster keeping the hard rules has less penalty
     lagrangian: Fraction | None = None  # the best bound before rounding up
     master_value: float | None = None
+    # how much of its artificial variables the last master solution used: above 0, the
+    # generated rows cannot meet every hard cover minimum even fractionally
+    artificial: float = 0.0
     converged: bool = False
     infeasible: bool = False  # proven: no roster keeps the hard rules
     iterations: int = 0
@@ -288,6 +291,7 @@ def decompose(
             break
         out.iterations += 1
         out.master_value = duals.value
+        out.artificial = duals.artificial
         exact = Point.of(duals)
         added = 0
         all_optimal = True

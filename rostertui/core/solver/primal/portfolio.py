@@ -18,6 +18,8 @@ POOL, RINS = "integer master", "RINS"
 EVALUATE_CAP = 30.0  # seconds for the exact objective of one roster (polish takes ~1 s
 #                      at 2014 people)
 
+ARTIFICIAL = 1e-7  # master artificial use treated as none
+
 Offer = Callable[[Values, int, str], None]  # a better roster, its objective, the method
 
 
@@ -29,7 +31,9 @@ def improve(built: Built, dw: Decomposition, start: Incumbent | None, *, deadlin
     then RINS from the best roster so far to `deadline`. `stop(objective)`: cancel, or
     a roster that meets the proven bound. Returns the best roster found (or `start`)."""
     best = start
-    if dw.columns and not dw.infeasible:
+    # with the artificial variables in use, no mix of the pool's rows meets the cover
+    # minimums, so no choice of one row each does: the pool would be searched in vain
+    if dw.columns and not dw.infeasible and dw.artificial <= ARTIFICIAL:
         found: list[Rows] = []
 
         def on_rows(rows: Rows, objective: int) -> None:
