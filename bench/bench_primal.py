@@ -6,6 +6,12 @@ tables into BENCHMARKS.md.
     .venv/bin/python bench/bench_primal.py --instances 1-15 clinic depot --limit 60
     .venv/bin/python bench/bench_primal.py --instances 5 7 8 --limit 60 --seeds 0 1 2
     .venv/bin/python bench/bench_primal.py --instances 5 --set pool_share=1.0 --only new
+    .venv/bin/python bench/bench_primal.py --instances clinic --before decompose=false
+    git worktree add --detach ../base HEAD~1   # the solver as it was, side by side:
+    .venv/bin/python bench/bench_primal.py --instances clinic --before code=../base
+
+`--before code=DIR` runs the baseline from the checkout in DIR (its `rostertui`
+package, imported in the baseline's own process) with its default options.
 
 Each run is a process of its own through the product's real path (load the
 workspace, solve, referee), from scratch (no roster in the workspace). Every
@@ -37,6 +43,10 @@ from bench_curtois import BENCH, best_known  # noqa: E402
 
 def run_solve(name: str, limit: float, workers: int, seed: int, changes: dict,
               out: mp.Queue) -> None:
+    changes = dict(changes)
+    code = changes.pop("code", None)
+    if code:  # another checkout's package (the solver as it was), in this fresh process
+        sys.path.insert(0, str(code))
     from rostertui.core.io.load import load_workspace
     from rostertui.core.solver import SolveOptions, solve
     from rostertui.core.solver.summary import improvement_story
@@ -46,8 +56,11 @@ def run_solve(name: str, limit: float, workers: int, seed: int, changes: dict,
     options = dataclasses.replace(SolveOptions(time_limit=limit, workers=workers, seed=seed),
                                   **changes)
     result = solve(ws, options)
+    import rostertui
+
     out.put({
-        "instance": name, "seed": seed, "changes": changes, "status": result.status,
+        "instance": name, "seed": seed, "changes": changes,
+        "code": str(Path(rostertui.__file__).parent.parent), "status": result.status,
         "objective": result.objective, "bound": result.bound,
         "best_seconds": round(result.best_seconds, 1) if result.best_seconds else None,
         "seconds": round(result.wall_seconds, 1), "found_by": result.found_by,
@@ -79,9 +92,13 @@ def main() -> int:
     parser.add_argument("--seeds", type=int, nargs="+", default=[0])
     parser.add_argument("--set", nargs="*", default=[], metavar="KEY=VALUE",
                         help="SolveOptions fields for the new run")
+    parser.add_argument("--before", nargs="*", default=["primal=false"], metavar="KEY=VALUE",
+                        help="SolveOptions fields of the run compared against "
+                             "(default: primal=false)")
     parser.add_argument("--only", choices=["new", "before"], help="one of the two runs")
     args = parser.parse_args()
     changes = {k: value(v) for k, v in (item.split("=", 1) for item in args.set)}
+    baseline = {k: value(v) for k, v in (item.split("=", 1) for item in args.before)}
     chosen = names(args.instances)
     if any(n.isdigit() for n in chosen) and not BENCH.is_dir():
         print(f"{BENCH} not found: the benchmark data is not beside this clone", file=sys.stderr)
@@ -89,7 +106,8 @@ def main() -> int:
     known = best_known() if BENCH.is_dir() else {}
     print(f"# {platform.machine()}, {os.cpu_count()} cores, Python "
           f"{platform.python_version()}, {args.workers} workers, seeds {args.seeds}, "
-          f"limit {args.limit:g} s, new: {changes or 'defaults'}", file=sys.stderr)
+          f"limit {args.limit:g} s, new: {changes or 'defaults'}, before: {baseline}",
+          file=sys.stderr)
     print("| instance | best known | new (seeds) | median new | before (seeds) | median before "
           "| new above best known | bound | found by (new, first seed) | peak MiB new |")
     print("|---|---|---|---|---|---|---|---|---|---|")
@@ -101,7 +119,7 @@ def main() -> int:
                 new.append(in_process(run_solve, name, args.limit, args.workers, seed, changes))
             if args.only != "new":
                 old.append(in_process(run_solve, name, args.limit, args.workers, seed,
-                                      {"primal": False}))
+                                      baseline))
         best = known.get(int(name)) if name.isdigit() else None
 
         def cell(rows: list[dict]) -> tuple[str, str, int | None]:

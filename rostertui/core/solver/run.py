@@ -5,7 +5,9 @@ from the call, or `SolveOptions.deadline` from the caller, who may count its own
 loading), and each phase gets only what remains of it. The build takes what it
 takes (`model.estimate_build` says beforehand how long); the warm start's completion
 gets a bounded share, the LP relaxation its share and only when it can be built in
-that share, the column-generation bound (decompose/) its share, CP-SAT the rest
+that share; with no roster yet, CP-SAT's first roster (primal/first.py) a small
+share, so one shows within seconds; the column-generation bound (decompose/) its
+share, the primal heuristics (primal/) theirs, CP-SAT the rest
 (never less than `MIN_SEARCH`), less what is kept back for polishing and refereeing
 the roster it returns. The bounds come before the search, not beside it: on 2 cores
 a bound thread next to the CP-SAT workers costs the search more than it gives; and
@@ -34,11 +36,14 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
+from rostertui.core.solver.decompose.loop import stall_value
 from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import Built, build_model
 from rostertui.core.solver.primal import Incumbent, improve
+from rostertui.core.solver.primal.first import first_roster
+from rostertui.core.solver.primal.portfolio import FIRST
 
 
 class RefereeError(RosterError):
@@ -59,6 +64,7 @@ class SolveOptions:
     # CP-SAT search: this share of the time then left, the integer master over the pool
     # taking `pool_share` of that, RINS the rest
     primal: bool = True
+    floor: bool = True  # the proven bound as the objective's lower end in the search
     primal_share: float = 0.5
     pool_share: float = 0.3
     log: bool = False
@@ -116,6 +122,8 @@ WARM_START = "warm start"  # the workspace's own roster
 # -- the time budget --------------------------------------------------------------------
 MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a small unit's
 #                   first roster takes well under a second
+STALL_AT = 0.5  # column generation's checkpoint, as a share of its time (loop.stall_value)
+FIRST_SHARE = 0.1  # at most this share of the time left for a first roster before the bound
 HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
 HINT_CAP = 10.0  # ...and never more than this
 POLISH_CAP = 60.0  # a safety cap: polishing a fixed roster takes 1.1 s at 2014 people
@@ -297,19 +305,31 @@ def solve(
     recorder = _Recorder(built, started, on_progress, cancel)
     if incumbent is not None and keep is None:
         recorder.offer(incumbent.values, incumbent.objective, WARM_START)
+    if options.decompose and keep is None and incumbent is None:
+        # a roster within seconds, however long the bounds take (the LP of a 100-person
+        # unit may use its whole share), kept as the best so far; neither a hint for the
+        # search nor a start for RINS (see below and primal/portfolio.py)
+        recorder.report(0.0)  # something to show while the first roster is found
+        t = time.monotonic()
+        first = first_roster(built, None, t + FIRST_SHARE * left(),
+                             options.workers or os.cpu_count() or 1, options.seed, cancel)
+        if first is not None:
+            recorder.offer(first.values, first.objective, FIRST)
+        phases["first"] = time.monotonic() - t
     if options.lp_bound and keep is None:
         recorder.report(0.0)  # something to show while the LP is solved
         # Before the search, not beside it: a GLOP thread next to the CP-SAT workers
         # cost 5-8 % of penalty on Curtois-Qu 10 and 12 at 60 s on 2 cores (seeds 1
         # and 2: 5051/5055 against 4843/4769 without, 4859/4762 with the LP first),
         # while the LP itself takes 0.1-1.5 s there (10.5 s on instance 12).
+        t = time.monotonic()
         share = options.lp_share * left()
         if LP_BUILD_PER_CONSTRAINT * size < share:  # else building the LP alone overruns
             relaxation = Relaxation(built.model)
-            rest = share - (time.monotonic() - started)
+            rest = share - (time.monotonic() - t)
             if rest > 0:
                 recorder.lp_bound = relaxation.solve(rest)
-        phases["lp"] = time.monotonic() - started
+        phases["lp"] = time.monotonic() - t
         recorder.report(time.monotonic() - started)
     decomposition = None
     floor = None  # the proven bound as the objective's floor, for the search only
@@ -320,7 +340,7 @@ def solve(
         # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
         # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
         # 768 against 652 at 60 s)
-        if options.primal and decomposition.columns:
+        if options.primal and decomposition.columns and not decomposition.stalled:
             t = time.monotonic()
             recorder.stage = "improve"
             incumbent = improve(
@@ -331,11 +351,14 @@ def solve(
                 cancel=cancel)
             recorder.stage = "search"
             phases["improve"] = time.monotonic() - t
+        # CP-SAT's first roster is kept (the recorder holds it) but not hinted: the
+        # search hinted with it did worse on the depot demo (438, 401 against 387 at
+        # 60 s, seeds 0-1) than from scratch
         if incumbent is not None:
             hint_solution(built.model, incumbent.solution)
         elif decomposition.converged and not built.model.proto.solution_hint.vars:
             built.cells.hint_rows(decomposition.heaviest())
-        if recorder.proven is not None:  # the search need not prove what is proven
+        if recorder.proven is not None and options.floor:  # need not prove the proven
             floor = built.model.add(built.build.objective() >= recorder.proven)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
@@ -364,7 +387,8 @@ def solve(
         domain.clear()
         domain.extend([cp_model.INT_MIN, cp_model.INT_MAX])
     seconds = time.monotonic() - started
-    phases["search"] = seconds - sum(phases.get(k, 0.0) for k in ("lp", "decompose", "improve"))
+    phases["search"] = seconds - sum(phases.get(k, 0.0)
+                                     for k in ("first", "lp", "decompose", "improve"))
     status = {
         cp_model.OPTIMAL: "optimal",
         cp_model.FEASIBLE: "feasible",
@@ -425,10 +449,15 @@ def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Re
         recorder.report(time.monotonic() - recorder.started)
 
     try:
-        return decompose(ws, built.cells,
-                         deadline=started + max(0.0, options.decompose_share * budget),
+        share = max(0.0, options.decompose_share * budget)
+        # halfway through its share, column generation still far from converging gives
+        # the rest of its time (and the heuristics' share) back to the search
+        value = stall_value(recorder.lp_bound, recorder.best_objective
+                            if recorder.best is not None else None)
+        give_up = (started + STALL_AT * share, value) if value is not None else None
+        return decompose(ws, built.cells, deadline=started + share,
                          workers=options.workers or os.cpu_count() or 1, seed=options.seed,
-                         on_progress=progress, cancel=cancel)
+                         on_progress=progress, cancel=cancel, give_up=give_up)
     finally:
         recorder.stage = "search"
         recorder.report(time.monotonic() - recorder.started)

@@ -25,12 +25,14 @@ from rostertui.core.check import check_roster
 from rostertui.core.io.load import load_workspace
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
-from rostertui.core.solver import SolveOptions, solve
+from rostertui.core.solver import SolveOptions, SolveProgress, solve
 from rostertui.core.solver.decompose import decompose
+from rostertui.core.solver.decompose.loop import STALL_RATIO, stall_value
 from rostertui.core.solver.decompose.pricing import one_person
 from rostertui.core.solver.fixing import evaluate, rows_of, values_of
 from rostertui.core.solver.model import build_model
 from rostertui.core.solver.primal import portfolio, rins
+from rostertui.core.solver.primal.first import first_roster
 from rostertui.core.solver.primal.pool import integer_master
 from rostertui.core.solver.summary import improvement_story
 from tests.conftest import BENCHMARKS, FIXTURES, need_shared
@@ -145,7 +147,7 @@ def test_solve_names_the_method_of_each_better_roster() -> None:
     out = solve(ws, SolveOptions(time_limit=15, workers=2))
     assert out.roster is not None and out.improvements
     methods = {method for _, _, method in out.improvements}
-    assert methods <= {portfolio.POOL, portfolio.RINS, "CP-SAT search"}
+    assert methods <= {portfolio.POOL, portfolio.FIRST, portfolio.RINS, "CP-SAT search"}
     penalties = [penalty for _, penalty, _ in out.improvements]
     assert penalties == sorted(penalties, reverse=True) and len(set(penalties)) == len(penalties)
     assert out.found_by == out.improvements[-1][2]
@@ -200,13 +202,25 @@ def test_curtois_qu_2_is_solved_to_its_optimum_and_proven() -> None:
 
 def test_curtois_qu_5_comes_within_2_percent_of_the_best_known() -> None:
     """Curtois & Qu (2014), instance 5: best known 1143 (BEST_KNOWN.md); the solver
-    before the primal heuristics gave 1240 at 60 s and 1234 at 300 s."""
+    before the primal heuristics gave 1240 at 60 s and 1234 at 300 s. The issue's
+    target is 2 % at 300 s: the solve is given 300 s and stopped once it is there
+    (4.5-30 s over seeds 0-3 here, the integer master's roster each time); a shorter
+    limit shrinks the master's share and made the test depend on the machine's load."""
     folder = BENCHMARKS / "workspaces" / "Instance5"
     need_shared(folder)
     ws = load_workspace(folder)
     ws.roster = None
-    out = solve(ws, SolveOptions(time_limit=40, workers=2))
-    assert out.objective is not None and out.objective <= 1143 * 1.02
+    target = int(1143 * 1.02)
+    cancel = threading.Event()
+
+    def stop_at_target(p: SolveProgress) -> None:
+        if p.penalty is not None and p.penalty <= target:
+            cancel.set()
+
+    out = solve(ws, SolveOptions(time_limit=300, workers=2), on_progress=stop_at_target,
+                cancel=cancel)
+    assert out.check is not None and out.check.compliant
+    assert out.objective is not None and 1143 <= out.objective <= target
 
 
 def test_the_pool_is_not_searched_when_the_master_cannot_meet_cover(
@@ -229,6 +243,63 @@ def test_the_pool_is_not_searched_when_the_master_cannot_meet_cover(
     dw.artificial = 1.0
     portfolio.improve(built, dw, None, **kw)
     assert calls == [1]
+
+
+def test_a_first_roster_shows_before_the_bound_and_rins_does_not_start_from_it(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """With no roster of the user's, CP-SAT's first roster comes before column
+    generation (a roster within seconds, however long the bound takes), exact as the
+    checker scores it. RINS does not start from it when the pool gives nothing (measured
+    worse than the plain search on the clinic demo, BENCHMARKS.md)."""
+    ws = load_workspace(FIXTURES / "good")
+    ws.roster = None
+    dw = decompose(ws, deadline=time.monotonic() + 30, workers=2)
+    assert dw.columns
+    built = build_model(ws)
+    first = first_roster(built, None, time.monotonic() + 10, 1, 0)
+    assert first is not None
+    result = check_roster(ws, _roster(ws, rows_of(built, first.values)))
+    assert result.compliant and result.penalty == first.objective
+    monkeypatch.setattr(portfolio, "integer_master", lambda *args, **kw: False)
+    offers: list[str] = []
+    kw = dict(deadline=time.monotonic() + 2, pool_share=0.3, workers=1, seed=0,
+              offer=lambda v, o, m: offers.append(m), stop=lambda objective: False)
+    assert portfolio.improve(built, dw, None, **kw) is None and offers == []
+
+    out = solve(ws, SolveOptions(time_limit=10, workers=2))
+    assert out.improvements and out.improvements[0][2] == portfolio.FIRST
+    assert out.improvements[0][0] <= out.phases["first"] + 0.5
+
+
+def test_column_generation_far_from_converging_gives_its_time_back(
+        monkeypatch: pytest.MonkeyPatch) -> None:
+    """Past the checkpoint, a master value above the stall value ends column
+    generation (`stalled`); the heuristics then do not run and the search gets their
+    time. The stall value is the lower of STALL_RATIO x the LP bound and a roster's
+    penalty (no converged master can lie above a roster's penalty)."""
+    assert stall_value(None, None) is None
+    assert stall_value(100, None) == 100 * STALL_RATIO and stall_value(0, None) == STALL_RATIO
+    assert stall_value(100, 180) == 180 and stall_value(None, 7) == 7
+    ws = load_workspace(FIXTURES / "good")
+    ws.roster = None
+    full = decompose(ws, deadline=time.monotonic() + 30, workers=1)
+    assert full.converged and full.master_value is not None and full.master_value > 5
+    stalled = decompose(ws, deadline=time.monotonic() + 30, workers=1,
+                        give_up=(time.monotonic(), 2.5))
+    assert stalled.stalled and not stalled.converged and stalled.iterations == 1
+    kept = decompose(ws, deadline=time.monotonic() + 30, workers=1,
+                     give_up=(time.monotonic(), 2.5e6))
+    assert not kept.stalled and kept.converged  # within the ratio of the other bound
+
+    from rostertui.core.solver import run
+    calls: list[int] = []
+    real = run.decompose
+    monkeypatch.setattr(run, "decompose", lambda *a, **k: real(
+        *a, **{**k, "give_up": (time.monotonic(), 2.5)}))
+    monkeypatch.setattr(run, "improve", lambda *a, **k: calls.append(1))
+    out = solve(ws, SolveOptions(time_limit=10, workers=2))
+    assert out.decomposition is not None and out.decomposition.stalled
+    assert calls == [] and out.roster is not None and out.check is not None
 
 
 def test_a_person_whose_first_row_is_slow_is_priced_again(

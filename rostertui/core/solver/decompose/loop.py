@@ -44,6 +44,22 @@ from rostertui.core.solver.decompose.rows import CoverRow, cover_rows
 SCALE = 1000  # duals are priced as multiples of 1/SCALE penalty
 SMOOTHING = 0.5  # weight of the best bound's duals in the priced point
 PRICE_CAP = 5.0  # seconds one person's pricing may take in one iteration
+# `give_up`: a restricted master still this many times above the LP relaxation's bound
+# halfway through its time is far from converging. From the iterations of 60 s solves
+# (18 s shares): halfway, the master stood at 2.8 and 3.6 x the LP bound on the demos
+# (neither converges before 72 s alone) and at 1.5-2.0 on Curtois-Qu 8 and 10
+# (converging at 13-14 s). A value of ours, chosen from those runs, not from a source.
+STALL_RATIO = 2.5
+
+
+def stall_value(lp_bound: int | None, roster_penalty: int | None) -> float | None:
+    """The master value above which column generation, at its checkpoint, is far from
+    converging: STALL_RATIO x the LP relaxation's bound, or the penalty of a roster
+    already found (the master's optimum can be no higher: it relaxes every roster),
+    whichever is lower; None with neither."""
+    found = [v for v in (STALL_RATIO * max(1, lp_bound) if lp_bound is not None else None,
+                         roster_penalty) if v is not None]
+    return float(min(found)) if found else None
 
 
 @dataclass(frozen=True)
@@ -64,6 +80,7 @@ class Decomposition:
     # generated rows cannot meet every hard cover minimum even fractionally
     artificial: float = 0.0
     converged: bool = False
+    stalled: bool = False  # given up at the checkpoint, far from converging (`give_up`)
     infeasible: bool = False  # proven: no roster keeps the hard rules
     iterations: int = 0
     seconds: float = 0.0
@@ -206,9 +223,12 @@ def decompose(
     on_progress: Callable[[DecompositionProgress], None] | None = None,
     cancel: threading.Event | None = None,
     target: int | None = None,
+    give_up: tuple[float, float] | None = None,
 ) -> Decomposition:
     """Column generation until convergence, `deadline` (time.monotonic()), `cancel`, or
-    a bound of `target` (a roster of that penalty is then proven optimal)."""
+    a bound of `target` (a roster of that penalty is then proven optimal). With
+    `give_up` = (a time, a value): at the first iteration past that time, a master
+    value still above that value ends it (`stalled`; see `stall_value`)."""
     started = time.monotonic()
     out = Decomposition()
     if cells is None:
@@ -307,6 +327,10 @@ def decompose(
                 break
         report(duals.value)
         if out.infeasible:
+            break
+        if give_up is not None and time.monotonic() >= give_up[0] \
+                and duals.value > give_up[1]:
+            out.stalled = True
             break
         if target is not None and out.bound is not None and out.bound >= target:
             break
