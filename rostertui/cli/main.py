@@ -22,6 +22,7 @@ from rostertui.cli import (
     stats,
     swap,
 )
+from rostertui.cli import next as next_verb
 from rostertui.cli import open as open_verb
 from rostertui.cli.output import EXIT_INPUT, fail, fail_input
 from rostertui.core.errors import EditError, InputError
@@ -42,7 +43,7 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
     for module in (open_verb, check, stats, solve, explain, repair, publish, diff, swap, absent,
-                   export, new, demo):
+                   export, new, next_verb, demo):
         module.register(verbs)
     return parser
 

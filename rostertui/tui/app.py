@@ -24,6 +24,7 @@ from rostertui.tui.screens.explain import Explained, ExplainScreen
 from rostertui.tui.screens.export import ExportScreen
 from rostertui.tui.screens.fairness import FairnessScreen
 from rostertui.tui.screens.help import HelpScreen
+from rostertui.tui.screens.nextperiod import NextPeriodScreen
 from rostertui.tui.screens.repair import RepairScreen
 from rostertui.tui.screens.roster import RosterScreen
 from rostertui.tui.screens.solve import SearchScreen, SolveScreen, SolveSettings
@@ -105,6 +106,9 @@ class RosterApp(App[int]):
                             "version (ctrl+d in the grid)", self.action_diff)
         yield SystemCommand("Save", "Write roster.toml, and requests.toml after an absence "
                             "(ctrl+s)", self.action_save)
+        yield SystemCommand("Start the next period…", "A new workspace for the period after "
+                            "this one, its history what this roster worked: preview, then "
+                            "create", self.action_next_period)
         yield SystemCommand("Undo", "Undo the last change (ctrl+z)", self.action_undo)
         yield SystemCommand("Keys", "Every key binding (F1)", self.action_help)
 
@@ -179,6 +183,18 @@ class RosterApp(App[int]):
         screen = self.screen
         if isinstance(screen, RosterScreen):
             screen.action_diff()
+
+    def action_next_period(self) -> None:
+        folder = self.session.ws.path
+        if folder is None or self.dialog_open("Next period"):
+            return
+        self.push_screen(NextPeriodScreen(folder, unsaved=self.session.dirty),
+                         self._next_made)
+
+    def _next_made(self, folder: Path | None) -> None:
+        if folder is not None:
+            self.notify(f"the next period is in {folder}; open it with: rostertui {folder}",
+                        title="next period", timeout=10)
 
     def action_save(self) -> None:
         try:
