@@ -10,6 +10,7 @@ from pathlib import Path
 from rostertui import __version__
 from rostertui.cli import (
     absent,
+    add_requests,
     check,
     demo,
     diff,
@@ -43,7 +44,7 @@ def build_parser() -> argparse.ArgumentParser:
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
     for module in (open_verb, check, stats, solve, explain, repair, publish, diff, swap, absent,
-                   export, new, next_verb, demo):
+                   export, new, next_verb, add_requests, demo):
         module.register(verbs)
     return parser
 

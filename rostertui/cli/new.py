@@ -7,6 +7,9 @@ from datetime import date, timedelta
 from pathlib import Path
 
 from rostertui.cli.output import EXIT_OK, fail
+from rostertui.core.errors import InputError, Problem
+from rostertui.core.intake.staff_csv import read_staff_csv, staff_toml
+from rostertui.core.intake.trial import relabel, trial_load
 from rostertui.core.io.atomic import write_atomic
 from rostertui.core.io.load import FILES, load_workspace
 
@@ -78,9 +81,16 @@ request = []
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
-    p = verbs.add_parser("new", help="write a new, valid, empty workspace to fill in")
+    p = verbs.add_parser(
+        "new", help="write a new, valid, empty workspace to fill in",
+        description="Write a new workspace to fill in. With --staff, staff.toml holds one "
+        "[[person]] per row of a CSV with the columns id, name and optionally skills, "
+        "groups, contract group (comma- or semicolon-separated, UTF-8 with or without a "
+        "BOM); every bad row is reported by line and nothing is written.",
+    )
     p.add_argument("dir", help="folder for the new workspace (created; must hold no workspace)")
-    p.set_defaults(run=lambda a: do_new(a.dir))
+    p.add_argument("--staff", metavar="FILE.csv", help="fill staff.toml from a staff list")
+    p.set_defaults(run=lambda a: do_new(a.dir, staff_csv=a.staff))
 
 
 def next_monday(today: date | None = None) -> date:
@@ -88,22 +98,50 @@ def next_monday(today: date | None = None) -> date:
     return today + timedelta(days=(7 - today.weekday()) % 7 or 7)
 
 
-def do_new(folder: str | Path, *, start: date | None = None) -> int:
+def do_new(folder: str | Path, *, start: date | None = None,
+           staff_csv: str | Path | None = None) -> int:
+    """Write the templates into `folder`; with `staff_csv`, staff.toml from that staff list
+    (checked first, then with the loader: nothing is written, not even the folder, on any
+    problem; InputError names the CSV's lines)."""
     folder = Path(folder)
     if folder.exists() and not folder.is_dir():
         return fail(f"{folder} exists and is not a folder; nothing written")
     clash = [name for name in FILES if (folder / name).exists()]
     if clash:
         return fail(f"{folder} already holds {', '.join(clash)}; nothing written")
-    folder.mkdir(parents=True, exist_ok=True)
     texts = {
         "unit.toml": UNIT_TEMPLATE.format(start=(start or next_monday()).isoformat()),
         "staff.toml": STAFF_TEMPLATE,
         "shifts.toml": SHIFTS_TEMPLATE,
         "requests.toml": REQUESTS_TEMPLATE,
     }
+    people = ""
+    if staff_csv is not None:
+        texts["staff.toml"], n = _staff_text(Path(staff_csv), texts)
+        people = f" with {n} {'person' if n == 1 else 'people'} from {Path(staff_csv).name}"
+    folder.mkdir(parents=True, exist_ok=True)
     for name, text in texts.items():
         write_atomic(folder / name, text)
     load_workspace(folder)  # the promise: what we write is valid
-    print(f"new workspace in {folder}: edit unit.toml, staff.toml, shifts.toml, requests.toml")
+    print(f"new workspace in {folder}{people}: edit unit.toml, staff.toml, shifts.toml, "
+          "requests.toml")
     return EXIT_OK
+
+
+def _staff_text(path: Path, texts: dict[str, str]) -> tuple[str, int]:
+    """staff.toml from the staff list at `path`, judged by the loader beside the other
+    templates; InputError with every problem, each on its CSV line."""
+    if not path.is_file():
+        raise InputError([Problem(str(path), "", "no such staff list (a CSV file)")])
+    read = read_staff_csv(path)
+    if not read.ok:
+        raise InputError(read.problems)
+    header = "".join(line + "\n" for line in STAFF_TEMPLATE.splitlines() if line.startswith("#"))
+    text = staff_toml(read.staff, header)
+    try:
+        trial_load({**texts, "staff.toml": text})
+    except InputError as exc:
+        lines = dict(enumerate(read.lines))
+        raise InputError(relabel(exc.problems, "staff.toml", "person", lines, read.label,
+                                 {"groups": "groups or contract group"})) from None
+    return text, len(read.people)

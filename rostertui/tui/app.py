@@ -16,6 +16,7 @@ from textual.reactive import reactive
 from textual.screen import ModalScreen, Screen
 from textual.worker import Worker, WorkerState
 
+from rostertui.core.intake.requests_csv import RequestsImport
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.messages import GotoCell, RosterSolved
 from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog, notify_written
@@ -24,6 +25,7 @@ from rostertui.tui.screens.explain import Explained, ExplainScreen
 from rostertui.tui.screens.export import ExportScreen
 from rostertui.tui.screens.fairness import FairnessScreen
 from rostertui.tui.screens.help import HelpScreen
+from rostertui.tui.screens.intake import AddRequestsScreen
 from rostertui.tui.screens.nextperiod import NextPeriodScreen
 from rostertui.tui.screens.repair import RepairScreen
 from rostertui.tui.screens.roster import RosterScreen
@@ -109,6 +111,9 @@ class RosterApp(App[int]):
         yield SystemCommand("Start the next period…", "A new workspace for the period after "
                             "this one, its history what this roster worked: preview, then "
                             "create", self.action_next_period)
+        yield SystemCommand("Add requests from a CSV file…", "Requests from a spreadsheet or "
+                            "a form export: preview, then add (undoable; ctrl+s saves)",
+                            self.action_add_requests)
         yield SystemCommand("Undo", "Undo the last change (ctrl+z)", self.action_undo)
         yield SystemCommand("Keys", "Every key binding (F1)", self.action_help)
 
@@ -164,6 +169,20 @@ class RosterApp(App[int]):
         shown = (str(written[0]) if len(written) == 1
                  else f"{len(written)} files in {written[0].parent}")
         self.notify(f"exported {shown}", title="export", timeout=6)
+
+    def action_add_requests(self) -> None:
+        if not self.dialog_open("Add requests"):
+            self.push_screen(AddRequestsScreen(self.session.ws), self._requests_added)
+
+    def _requests_added(self, plan: RequestsImport | None) -> None:
+        if plan is None or plan.requests is None:
+            return
+        n = len(plan.added)
+        label = f"add {n} request{'s' if n != 1 else ''} from {plan.label}"
+        if self.session.add_requests(plan.requests, label) is not None:
+            self.notify(f"{label}; ctrl+s writes requests.toml, ctrl+z undoes",
+                        title="requests", timeout=6)
+            self.revised()
 
     def action_versions(self) -> None:
         if isinstance(self.screen, VersionsScreen):

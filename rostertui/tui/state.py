@@ -203,6 +203,13 @@ class Session:
             return None
         return self._apply(new, label)
 
+    def add_requests(self, requests: RequestsFile, label: str) -> Change | None:
+        """Take a whole requests file holding more requests (an import), undoably; the
+        roster is unchanged. None when it equals the current one."""
+        if requests == self.requests:
+            return None
+        return self._apply(self.roster, label, requests)
+
     def undo(self) -> Change | None:
         if not self._undo:
             return None

@@ -1,0 +1,1 @@
+"""Staff and requests from the CSV files spreadsheets and form tools save (pure)."""
