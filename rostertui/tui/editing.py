@@ -18,21 +18,13 @@ from pathlib import Path
 from pydantic import BaseModel
 
 from rostertui.core.io.atomic import write_atomic
-from rostertui.core.io.load import load_workspace
+from rostertui.core.io.load import load_workspace, workspace_files
 from rostertui.core.io.save import save
 from rostertui.core.io.transaction import transaction
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.staff import Staff
 from rostertui.tui.rosters import keep_people
 from rostertui.tui.state import Session
-
-
-def workspace_files(folder: Path, include: list[str]) -> list[tuple[Path, str]]:
-    """The TOML files a workspace reads, with their path relative to the workspace: its
-    top-level files and the local presets it includes."""
-    found = [(p, p.name) for p in sorted(folder.glob("*.toml"))]
-    found += [(folder / name, name) for name in include if name.endswith(".toml")]
-    return [(p, rel) for p, rel in found if p.is_file()]
 
 
 def apply(session: Session, changed: list[BaseModel],

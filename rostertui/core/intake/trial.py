@@ -10,7 +10,7 @@ import tempfile
 from pathlib import Path
 
 from rostertui.core.errors import Problem
-from rostertui.core.io.load import load_workspace
+from rostertui.core.io.load import load_workspace, workspace_files
 from rostertui.core.models.workspace import Workspace
 
 
@@ -23,11 +23,7 @@ def trial_load(files: dict[str, str], source: Path | None = None,
         trial = Path(tmp) / "scratch" / "workspace"  # room for includes like ../x.toml
         trial.mkdir(parents=True)
         if source is not None:
-            found = [(p, p.name) for p in sorted(source.glob("*.toml"))
-                     if p.is_file() and not p.name.startswith(".")]  # not a journal
-            found += [(source / n, n) for n in include or [] if n.endswith(".toml")
-                      and (source / n).is_file()]
-            for path, rel in found:
+            for path, rel in workspace_files(source, include or []):
                 target = (trial / rel).resolve()
                 if target.is_relative_to(Path(tmp).resolve()):
                     target.parent.mkdir(parents=True, exist_ok=True)

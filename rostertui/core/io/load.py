@@ -156,6 +156,15 @@ def load_file(
     return validate(FILES[name], data, name, report)
 
 
+def workspace_files(folder: Path, include: list[str]) -> list[tuple[Path, str]]:
+    """The TOML files a workspace reads, with their path relative to the workspace: its
+    top-level files (not hidden ones, such as a journal's) and the local presets it
+    includes. Used by every trial load of would-be files (UI editors, imports)."""
+    found = [(p, p.name) for p in sorted(folder.glob("*.toml")) if not p.name.startswith(".")]
+    found += [(folder / name, name) for name in include if name.endswith(".toml")]
+    return [(p, rel) for p, rel in found if p.is_file()]
+
+
 def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None) -> Workspace:
     """Read, validate and cross-check every file of the workspace folder.
 
