@@ -7,7 +7,7 @@ import argparse
 from datetime import date
 from pathlib import Path
 
-from rostertui.cli.args import version_number
+from rostertui.cli.args import iso_date, version_number
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, print_json, warn
 from rostertui.core.cycle import plan_next, preview_lines, write_plan
 from rostertui.core.io.load import load_workspace
@@ -16,16 +16,7 @@ from rostertui.core.io.published import load_published
 
 def date_list(text: str) -> list[date]:
     """argparse type: dates as YYYY-MM-DD separated by commas (may be empty)."""
-    out = []
-    for part in (p.strip() for p in text.split(",")):
-        if not part:
-            continue
-        try:
-            out.append(date.fromisoformat(part))
-        except ValueError:
-            raise argparse.ArgumentTypeError(f"{part!r} is not a date; write YYYY-MM-DD") \
-                from None
-    return out
+    return [iso_date(part) for part in (p.strip() for p in text.split(",")) if part]
 
 
 def register(verbs: argparse._SubParsersAction) -> None:

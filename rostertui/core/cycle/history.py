@@ -66,12 +66,14 @@ def round_up(value: Fraction) -> float:
     return math.ceil(value * 100) / 100
 
 
-def history_rows(ws: Workspace, roster: Roster, days: int) -> dict[str, list[str]]:
+def history_rows(ws: Workspace, roster: Roster, days: int,
+                 grid: Grid | None = None) -> dict[str, list[str]]:
     """The last `days` days of old history + old roster per person (fewer when less is
-    known), oldest first; a person without a roster row was off every day."""
+    known), oldest first; a person without a roster row was off every day. `grid`: the
+    roster's, when the caller has it already."""
     if days <= 0:
         return {}
-    grid = Grid(ws, roster)
+    grid = grid or Grid(ws, roster)
     out: dict[str, list[str]] = {}
     for pid in ws.person_ids:
         full, _ = grid.full(pid)
@@ -127,10 +129,12 @@ def mixed_windows(ws: Workspace) -> list[str]:
     return out
 
 
-def hours_before(ws: Workspace, roster: Roster, new_days: int) -> dict[str, HoursBefore]:
+def hours_before(ws: Workspace, roster: Roster, new_days: int,
+                 grid: Grid | None = None) -> dict[str, HoursBefore]:
     """`hours_before` of the period that follows the workspace's, for each person under a
-    `max-average-weekly-hours` rule whose window reaches before the new start."""
-    grid = Grid(ws, roster)
+    `max-average-weekly-hours` rule whose window reaches before the new start. `grid`:
+    the roster's, when the caller has it already."""
+    grid = grid or Grid(ws, roster)
     old_n = ws.unit.days
     old_before = ws.history.hours_before if ws.history is not None else {}
     out: dict[str, HoursBefore] = {}

@@ -22,7 +22,6 @@ What the new workspace holds:
 
 from __future__ import annotations
 
-import json
 import re
 import tomllib
 from collections.abc import Callable
@@ -36,11 +35,12 @@ import tomlkit
 from tomlkit.items import Comment
 
 from rostertui.core.check import check_roster
+from rostertui.core.check.grid import Grid
 from rostertui.core.cycle.history import HoursBefore, history_rows, hours_before, mixed_windows
 from rostertui.core.cycle.lookback import Need, history_days, needs
 from rostertui.core.errors import EditError
 from rostertui.core.io.presets import resolve_include
-from rostertui.core.io.toml_merge import merge_text, same_data
+from rostertui.core.io.save import merged_text, toml_inline, toml_key
 from rostertui.core.models.requests import Leave, Request, RequestsFile
 from rostertui.core.models.workspace import Workspace
 
@@ -171,19 +171,10 @@ def edited(
     and why ("" otherwise)."""
     text = path.read_text(encoding="utf-8")
     new = change(tomllib.loads(text))
-    try:
-        merged = merge_text(text, new)
-        if stale:
-            merged = _drop_comments(merged, stale)
-        if same_data(tomllib.loads(merged), new):
-            return merged, ""
-    except Exception:  # a tomlkit corner case: write it fresh, and say so
-        pass
+    merged, _ = merged_text(text, new)
+    if merged is not None:
+        return (_drop_comments(merged, stale) if stale else merged), ""
     return tomli_w.dumps(new), f"{path.name} is written fresh: its comments could not be kept"
-
-
-def _key(name: str) -> str:
-    return tomli_w.dumps({name: 0}).split(" = ", 1)[0]
 
 
 def _day(d: date) -> str:
@@ -210,7 +201,7 @@ def dumps_history(
         head.append(f"# Rows: up to {n} days, oldest first, the last = {last}; the longest")
         head.append(f"# look-back of the rules{why}.")
     lines = [*head, "[rows]"]
-    lines += [f"{_key(pid)} = [{', '.join(json.dumps(c) for c in row)}]"
+    lines += [f"{toml_key(pid)} = {toml_inline(row)}"
               for pid, row in rows.items()]
     if before:
         some = next(iter(before.values()))
@@ -223,7 +214,7 @@ def dumps_history(
         ]
         for pid, h in before.items():
             note = "" if h.basis == "exact" else f"  # {h.reason()}"
-            lines.append(f"{_key(pid)} = {h.hours!r}{note}")
+            lines.append(f"{toml_key(pid)} = {h.hours!r}{note}")
     return "\n".join(lines) + "\n"
 
 
@@ -298,8 +289,9 @@ def plan_next(
 
     found = needs(ws.rules, start, n, ws.unit.weekend, list(ws.unit.holidays))
     keep = history_days(found)
-    rows = history_rows(ws, roster, keep)
-    before = hours_before(ws, roster, n)
+    grid = Grid(ws, roster)
+    rows = history_rows(ws, roster, keep, grid)
+    before = hours_before(ws, roster, n, grid)
     for pid in mixed_windows(ws):
         warnings.append(f"{pid} is under averaging rules with different weeks; hours_before "
                         "serves the longest window")

@@ -7,13 +7,10 @@ from rostertui.core.cycle.nextperiod import Plan
 
 def preview_lines(plan: Plan) -> list[str]:
     """What the plan writes, in a few lines (the CLI's report and the UI's preview)."""
-    out = [
-        f"Next period in {plan.target}: {plan.start} to {plan.end} ({plan.days} days), "
-        f"history from {plan.source.name}/{plan.roster_label}"
-        if plan.roster_label == "roster.toml" else
-        f"Next period in {plan.target}: {plan.start} to {plan.end} ({plan.days} days), "
-        f"history from {plan.roster_label} of {plan.source.name}",
-    ]
+    source = f"{plan.source.name}/{plan.roster_label}" if plan.roster_label == "roster.toml" \
+        else f"{plan.roster_label} of {plan.source.name}"
+    out = [f"Next period in {plan.target}: {plan.start} to {plan.end} ({plan.days} days), "
+           f"history from {source}"]
     out.append("  holidays: " + (", ".join(map(str, plan.holidays)) or "none"))
     if plan.needs:
         top = plan.needs[0]

@@ -20,7 +20,6 @@ whole would-be workspace, so every problem comes back on its CSV line; nothing i
 
 from __future__ import annotations
 
-import difflib
 import re
 from collections import Counter
 from dataclasses import dataclass, field
@@ -32,6 +31,7 @@ from pydantic import ValidationError
 from rostertui.core.errors import InputError, Problem
 from rostertui.core.intake.sheet import Row, Sheet, read_sheet
 from rostertui.core.intake.trial import relabel, trial_load
+from rostertui.core.io.crosscheck import near
 from rostertui.core.io.save import render
 from rostertui.core.models.common import OFF
 from rostertui.core.models.requests import Request, RequestsFile
@@ -120,7 +120,7 @@ def _request(sheet: Sheet, row: Row, ws: Workspace) -> Request | None:
     if not pid:
         sheet.bad(row.line, "person", "empty person; give the person's id from staff.toml")
     elif pid not in ws.person_by_id:
-        sheet.bad(row.line, "person", f"unknown person {pid!r}{_near(pid, ws.person_ids)}")
+        sheet.bad(row.line, "person", f"unknown person {pid!r}{near(pid, ws.person_ids)}")
     day = _date(sheet, row, ws)
     asked = _asked(sheet, row, ws)
     weight = _weight(sheet, row)
@@ -135,11 +135,6 @@ def _request(sheet: Sheet, row: Row, ws: Workspace) -> Request | None:
             column = str(err["loc"][0]) if err["loc"] else ""
             sheet.bad(row.line, column, err["msg"].removeprefix("Value error, "))
         return None
-
-
-def _near(value: str, known: list[str]) -> str:
-    hint = difflib.get_close_matches(value, known, n=1, cutoff=0.6)
-    return f" (did you mean {hint[0]!r}?)" if hint else ""
 
 
 def _weight(sheet: Sheet, row: Row) -> int:
@@ -178,7 +173,7 @@ def _asked(sheet: Sheet, row: Row, ws: Workspace) -> tuple[str | None, str | Non
     if code is None:
         codes = ", ".join(s.code for s in ws.shifts.shift) or "none defined yet"
         sheet.bad(row.line, given[0][0], f"unknown shift code {text!r}"
-                  f"{_near(text, [s.code for s in ws.shifts.shift])}; shifts: {codes}"
+                  f"{near(text, [s.code for s in ws.shifts.shift])}; shifts: {codes}"
                   + ("" if column == "avoid" else "; or off"))
         return None
     return (code, None) if column == "want" else (None, code)

@@ -12,12 +12,11 @@ from __future__ import annotations
 from dataclasses import dataclass, field
 from pathlib import Path
 
-import tomli_w
 from pydantic import TypeAdapter, ValidationError
 
 from rostertui.core.errors import Problem
 from rostertui.core.intake.sheet import Row, Sheet, read_sheet, split_values
-from rostertui.core.io.save import as_toml_data
+from rostertui.core.io.save import as_toml_data, toml_inline
 from rostertui.core.models.common import DisplayName, Identifier
 from rostertui.core.models.staff import Person, Staff
 
@@ -112,6 +111,4 @@ def staff_toml(staff: Staff, header: str = "") -> str:
 
 
 def _value(value: str | list[str]) -> str:
-    if isinstance(value, list):
-        return "[" + ", ".join(_value(v) for v in value) + "]"
-    return tomli_w.dumps({"v": value}).split(" = ", 1)[1].strip()
+    return toml_inline(value) if isinstance(value, list) else toml_inline([value])[1:-1]

@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 import difflib
+from collections.abc import Collection
 from dataclasses import dataclass, field
 from datetime import date
 
@@ -27,7 +28,8 @@ STAFF, SHIFTS, REQUESTS, HISTORY, ROSTER, UNIT = (
 )
 
 
-def _near(value: str, known: set[str]) -> str:
+def near(value: str, known: Collection[str]) -> str:
+    """ " (did you mean 'x'?)" for the closest known name, or "" with none close."""
     hint = difflib.get_close_matches(value, sorted(known), n=1, cutoff=0.6)
     return f" (did you mean {hint[0]!r}?)" if hint else ""
 
@@ -83,7 +85,7 @@ class CrossCheck:
     def person(self, file: str, path: tuple, pid: str) -> bool:
         if pid in self.people:
             return True
-        self.report.error(file, path, f"unknown person {pid!r}{_near(pid, self.people)}")
+        self.report.error(file, path, f"unknown person {pid!r}{near(pid, self.people)}")
         return False
 
     def code(self, file: str, path: tuple, code: str, *, off_ok: bool = True) -> None:
@@ -96,7 +98,7 @@ class CrossCheck:
         self.report.error(
             file,
             path,
-            f"unknown shift code {code!r}{_near(code, self.codes)}; expected one of "
+            f"unknown shift code {code!r}{near(code, self.codes)}; expected one of "
             + ", ".join(repr(c) for c in expected),
         )
 
@@ -144,7 +146,7 @@ class CrossCheck:
             self.report.error(
                 SHIFTS, path,
                 f"unknown skill {skill!r}: no one in staff.toml holds it"
-                + _near(skill, self.skills),
+                + near(skill, self.skills),
             )
 
     def staff_skills(self, staff: Staff) -> None:

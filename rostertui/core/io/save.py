@@ -84,21 +84,24 @@ def toml_data(model: BaseModel, *, defaults: bool = False) -> dict[str, Any]:
     raise TypeError(f"no TOML writer for {type(model).__name__}")
 
 
-def _inline(values: list[str]) -> str:
+def toml_inline(values: list[str]) -> str:
+    """A list of strings as one inline TOML array."""
     return "[" + ", ".join(tomli_w.dumps({"v": v}).split(" = ", 1)[1].strip() for v in values) + "]"
 
 
-def _key(name: str) -> str:
+def toml_key(name: str) -> str:
+    """A key as TOML writes it (bare, or quoted when it must be)."""
     return tomli_w.dumps({name: 0}).split(" = ", 1)[0]
 
 
 def dumps_roster(roster: Roster) -> str:
     """roster.toml exactly as the spec shows: one inline row of codes per person."""
     lines = [f"start = {roster.start.isoformat()}", f"days = {roster.days}", "", "[rows]"]
-    lines += [f"{_key(pid)} = {_inline(row)}" for pid, row in roster.rows.items()]
+    lines += [f"{toml_key(pid)} = {toml_inline(row)}" for pid, row in roster.rows.items()]
     for lock in roster.lock:
         dates = ", ".join(d.isoformat() for d in lock.dates)
-        lines += ["", "[[lock]]", f"person = {_inline([lock.person])[1:-1]}", f"dates = [{dates}]"]
+        person = toml_inline([lock.person])[1:-1]
+        lines += ["", "[[lock]]", f"person = {person}", f"dates = [{dates}]"]
     if roster.solve is not None:
         lines += ["", "[solve]"]
         lines += tomli_w.dumps(roster.solve.model_dump(exclude_none=True)).splitlines()
@@ -161,6 +164,11 @@ def _merged(model: BaseModel, text: str) -> tuple[str | None, str]:
         data = _merge_data(model, tomllib.loads(text))
     except ValueError:  # not TOML: written fresh
         return None, "not valid TOML, so it was written fresh"
+    return merged_text(text, data)
+
+
+def merged_text(text: str, data: dict[str, Any]) -> tuple[str | None, str]:
+    """`text` holding `data`, its comments and layout kept, or None and why it cannot."""
     try:
         merged = merge_text(text, data)
         back = tomllib.loads(merged)

@@ -285,6 +285,7 @@ def solve(
     proven for rosters changing no more cells than the one returned.
     """
     options = options or SolveOptions()
+    workers = options.workers or os.cpu_count() or 1
     t0 = time.monotonic()
     deadline = options.deadline if options.deadline is not None else t0 + options.time_limit
     phases: dict[str, float] = {}
@@ -311,8 +312,7 @@ def solve(
         # search nor a start for RINS (see below and primal/portfolio.py)
         recorder.report(0.0)  # something to show while the first roster is found
         t = time.monotonic()
-        first = first_roster(built, None, t + FIRST_SHARE * left(),
-                             options.workers or os.cpu_count() or 1, options.seed, cancel)
+        first = first_roster(built, t + FIRST_SHARE * left(), workers, options.seed, cancel)
         if first is not None:
             recorder.offer(first.values, first.objective, FIRST)
         phases["first"] = time.monotonic() - t
@@ -346,7 +346,7 @@ def solve(
             incumbent = improve(
                 built, decomposition, incumbent,
                 deadline=t + max(0.0, options.primal_share * left()),
-                pool_share=options.pool_share, workers=options.workers or os.cpu_count() or 1,
+                pool_share=options.pool_share, workers=workers,
                 seed=options.seed, offer=recorder.offer, stop=recorder.should_stop,
                 cancel=cancel)
             recorder.stage = "search"
@@ -363,7 +363,7 @@ def solve(
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
-    solver.parameters.num_workers = options.workers or os.cpu_count() or 1
+    solver.parameters.num_workers = workers
     solver.parameters.random_seed = options.seed
     solver.parameters.log_search_progress = options.log
     # A fuller LP in the search. Single 30 s runs on Curtois-Qu 5, 6, 7, 10 looked

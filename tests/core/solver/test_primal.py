@@ -256,7 +256,7 @@ def test_a_first_roster_shows_before_the_bound_and_rins_does_not_start_from_it(
     dw = decompose(ws, deadline=time.monotonic() + 30, workers=2)
     assert dw.columns
     built = build_model(ws)
-    first = first_roster(built, None, time.monotonic() + 10, 1, 0)
+    first = first_roster(built, time.monotonic() + 10, 1, 0)
     assert first is not None
     result = check_roster(ws, _roster(ws, rows_of(built, first.values)))
     assert result.compliant and result.penalty == first.objective
