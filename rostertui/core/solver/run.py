@@ -36,7 +36,7 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
-from rostertui.core.solver.decompose.loop import stall_value
+from rostertui.core.solver.decompose.loop import Checkpoint
 from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
@@ -122,7 +122,7 @@ WARM_START = "warm start"  # the workspace's own roster
 # -- the time budget --------------------------------------------------------------------
 MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a small unit's
 #                   first roster takes well under a second
-STALL_AT = 0.5  # column generation's checkpoint, as a share of its time (loop.stall_value)
+STALL_AT = 0.5  # column generation's checkpoint, as a share of its time (loop.Checkpoint)
 FIRST_SHARE = 0.1  # at most this share of the time left for a first roster before the bound
 HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
 HINT_CAP = 10.0  # ...and never more than this
@@ -452,9 +452,8 @@ def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Re
         share = max(0.0, options.decompose_share * budget)
         # halfway through its share, column generation still far from converging gives
         # the rest of its time (and the heuristics' share) back to the search
-        value = stall_value(recorder.lp_bound, recorder.best_objective
-                            if recorder.best is not None else None)
-        give_up = (started + STALL_AT * share, value) if value is not None else None
+        give_up = Checkpoint(started + STALL_AT * share, recorder.lp_bound,
+                             recorder.best_objective if recorder.best is not None else None)
         return decompose(ws, built.cells, deadline=started + share,
                          workers=options.workers or os.cpu_count() or 1, seed=options.seed,
                          on_progress=progress, cancel=cancel, give_up=give_up)

@@ -15,6 +15,7 @@ import dataclasses
 import tempfile
 import threading
 import time
+from fractions import Fraction
 from pathlib import Path
 
 import pytest
@@ -27,7 +28,7 @@ from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, SolveProgress, solve
 from rostertui.core.solver.decompose import decompose
-from rostertui.core.solver.decompose.loop import STALL_RATIO, stall_value
+from rostertui.core.solver.decompose.loop import STALL_RATIO, Checkpoint
 from rostertui.core.solver.decompose.pricing import one_person
 from rostertui.core.solver.fixing import evaluate, rows_of, values_of
 from rostertui.core.solver.model import build_model
@@ -275,27 +276,36 @@ def test_column_generation_far_from_converging_gives_its_time_back(
         monkeypatch: pytest.MonkeyPatch) -> None:
     """Past the checkpoint, a master value above the stall value ends column
     generation (`stalled`); the heuristics then do not run and the search gets their
-    time. The stall value is the lower of STALL_RATIO x the LP bound and a roster's
-    penalty (no converged master can lie above a roster's penalty)."""
-    assert stall_value(None, None) is None
-    assert stall_value(100, None) == 100 * STALL_RATIO and stall_value(0, None) == STALL_RATIO
-    assert stall_value(100, 180) == 180 and stall_value(None, 7) == 7
+    time. The stall value is the lower of STALL_RATIO x the best lower bound known
+    (the LP relaxation's or the Lagrangian bound so far) and a roster's penalty (no
+    converged master can lie above a roster's penalty)."""
+    assert Checkpoint(0.0).limit(None) == STALL_RATIO  # no bound yet: at least 1
+    assert Checkpoint(0.0, lp_bound=100).limit(None) == 100 * STALL_RATIO
+    # a Lagrangian bound above the LP's is the better reference (Curtois-Qu 9: LP 39,
+    # Lagrangian 382 halfway, master 406 at convergence)
+    assert Checkpoint(0.0, lp_bound=100).limit(Fraction(300)) == 300 * STALL_RATIO
+    assert Checkpoint(0.0, lp_bound=300).limit(Fraction(100)) == 300 * STALL_RATIO
+    assert Checkpoint(0.0, lp_bound=100, roster=110).limit(None) == 110
+    assert Checkpoint(0.0, roster=7).limit(Fraction(50)) == 7
+    assert not Checkpoint(10.0, roster=7).far(9.9, 1000.0, None)  # not yet its time
+    assert Checkpoint(10.0, roster=7).far(10.0, 7.5, None)
+    assert not Checkpoint(10.0, lp_bound=100).far(10.0, 100 * STALL_RATIO, None)
     ws = load_workspace(FIXTURES / "good")
     ws.roster = None
     full = decompose(ws, deadline=time.monotonic() + 30, workers=1)
     assert full.converged and full.master_value is not None and full.master_value > 5
     stalled = decompose(ws, deadline=time.monotonic() + 30, workers=1,
-                        give_up=(time.monotonic(), 2.5))
+                        give_up=Checkpoint(time.monotonic(), roster=2))
     assert stalled.stalled and not stalled.converged and stalled.iterations == 1
     kept = decompose(ws, deadline=time.monotonic() + 30, workers=1,
-                     give_up=(time.monotonic(), 2.5e6))
+                     give_up=Checkpoint(time.monotonic(), lp_bound=10**6))
     assert not kept.stalled and kept.converged  # within the ratio of the other bound
 
     from rostertui.core.solver import run
     calls: list[int] = []
     real = run.decompose
     monkeypatch.setattr(run, "decompose", lambda *a, **k: real(
-        *a, **{**k, "give_up": (time.monotonic(), 2.5)}))
+        *a, **{**k, "give_up": Checkpoint(time.monotonic(), roster=2)}))
     monkeypatch.setattr(run, "improve", lambda *a, **k: calls.append(1))
     out = solve(ws, SolveOptions(time_limit=10, workers=2))
     assert out.decomposition is not None and out.decomposition.stalled

@@ -44,22 +44,38 @@ from rostertui.core.solver.decompose.rows import CoverRow, cover_rows
 SCALE = 1000  # duals are priced as multiples of 1/SCALE penalty
 SMOOTHING = 0.5  # weight of the best bound's duals in the priced point
 PRICE_CAP = 5.0  # seconds one person's pricing may take in one iteration
-# `give_up`: a restricted master still this many times above the LP relaxation's bound
-# halfway through its time is far from converging. From the iterations of 60 s solves
-# (18 s shares): halfway, the master stood at 2.8 and 3.6 x the LP bound on the demos
-# (neither converges before 72 s alone) and at 1.5-2.0 on Curtois-Qu 8 and 10
-# (converging at 13-14 s). A value of ours, chosen from those runs, not from a source.
-STALL_RATIO = 2.5
+# `give_up`: a restricted master still this many times above the best lower bound
+# known (the LP relaxation's, or the Lagrangian bound of the iterations so far) halfway
+# through its time is far from converging. From the iterations of 60 s solves (18 s
+# shares, BENCHMARKS.md): halfway, the converging ones stood at 1.06-1.11 x (Curtois-Qu
+# 8 against its LP bound, 9 against its Lagrangian bound; both converge by 16 s), those
+# that do not converge within their share at 1.35-1.6 x (the clinic and depot demos,
+# 72 s and more alone) and 2.3-3.1 x (Curtois-Qu 12, 14, 15). A value of ours, chosen
+# from those runs, not from a source. (It was 2.5 x the LP bound alone: that let the
+# demos run their whole share for nothing, and stopped instance 9, whose LP bound is
+# weak, two iterations before it converged.)
+STALL_RATIO = 1.2
 
 
-def stall_value(lp_bound: int | None, roster_penalty: int | None) -> float | None:
-    """The master value above which column generation, at its checkpoint, is far from
-    converging: STALL_RATIO x the LP relaxation's bound, or the penalty of a roster
-    already found (the master's optimum can be no higher: it relaxes every roster),
-    whichever is lower; None with neither."""
-    found = [v for v in (STALL_RATIO * max(1, lp_bound) if lp_bound is not None else None,
-                         roster_penalty) if v is not None]
-    return float(min(found)) if found else None
+@dataclass(frozen=True)
+class Checkpoint:
+    """Column generation's checkpoint (`decompose(give_up=...)`): from time `at`
+    (time.monotonic()) on, a master judged `far` from converging ends it."""
+
+    at: float
+    lp_bound: int | None = None  # the LP relaxation's bound, when solved
+    roster: int | None = None  # the penalty of a roster already found
+
+    def limit(self, lagrangian: Fraction | None) -> float:
+        """STALL_RATIO x the best lower bound known (the LP relaxation's, the
+        Lagrangian bound so far, at least 1), or a roster's penalty (a converged master
+        relaxes every roster, so it lies no higher), whichever is lower."""
+        low = max([1.0] + [float(v) for v in (self.lp_bound, lagrangian) if v is not None])
+        value = STALL_RATIO * low
+        return value if self.roster is None else min(value, float(self.roster))
+
+    def far(self, now: float, master: float, lagrangian: Fraction | None) -> bool:
+        return now >= self.at and master > self.limit(lagrangian)
 
 
 @dataclass(frozen=True)
@@ -223,12 +239,12 @@ def decompose(
     on_progress: Callable[[DecompositionProgress], None] | None = None,
     cancel: threading.Event | None = None,
     target: int | None = None,
-    give_up: tuple[float, float] | None = None,
+    give_up: Checkpoint | None = None,
 ) -> Decomposition:
     """Column generation until convergence, `deadline` (time.monotonic()), `cancel`, or
     a bound of `target` (a roster of that penalty is then proven optimal). With
-    `give_up` = (a time, a value): at the first iteration past that time, a master
-    value still above that value ends it (`stalled`; see `stall_value`)."""
+    `give_up`: at the first iteration past its time, a master still far from
+    converging ends it (`stalled`; see `Checkpoint`)."""
     started = time.monotonic()
     out = Decomposition()
     if cells is None:
@@ -328,8 +344,7 @@ def decompose(
         report(duals.value)
         if out.infeasible:
             break
-        if give_up is not None and time.monotonic() >= give_up[0] \
-                and duals.value > give_up[1]:
+        if give_up is not None and give_up.far(time.monotonic(), duals.value, out.lagrangian):
             out.stalled = True
             break
         if target is not None and out.bound is not None and out.bound >= target:
