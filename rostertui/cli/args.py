@@ -9,6 +9,7 @@ from rostertui.core.check import Violation
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff
+from rostertui.core.words import weekday_day as day
 
 
 def iso_date(text: str) -> date:
@@ -34,10 +35,6 @@ def version_number(text: str) -> int:
     if not raw.isdigit() or int(raw) < 1:
         raise argparse.ArgumentTypeError(f"{text!r} is not a version number (1, 2, ... or v1)")
     return int(raw)
-
-
-def day(d: date) -> str:
-    return f"{d:%a} {d.day} {d:%b}"
 
 
 def code(c: str) -> str:

@@ -39,10 +39,10 @@ from fractions import Fraction
 from pathlib import Path
 
 from rostertui.cli.output import EXIT_OK, print_json, warn
-from rostertui.core.check.messages import number
 from rostertui.core.io.load import load_workspace
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.stats import PersonStats, RosterStats, Summary, roster_stats
+from rostertui.core.words import number
 
 PEOPLE_HEADER = (
     "Id", "Name", "Hours", "Shifts", "Nights", "Wkend days", "Wkends", "Hols",

@@ -12,8 +12,6 @@ from dataclasses import dataclass
 from datetime import date
 
 from rostertui.core.check import CheckResult, Violation, check_roster
-from rostertui.core.check.messages import day as day_text
-from rostertui.core.check.messages import span
 from rostertui.core.errors import EditError
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.roster import Roster
@@ -22,6 +20,8 @@ from rostertui.core.repair.absence import Absence, record_absence
 from rostertui.core.repair.diff import CellDiff
 from rostertui.core.repair.impact import Impact, impact
 from rostertui.core.repair.swap import swap
+from rostertui.core.words import day as day_text
+from rostertui.core.words import span
 
 
 @dataclass(frozen=True)

@@ -16,12 +16,12 @@ from datetime import date
 from rostertui.core.check import Violation
 from rostertui.core.check.builtin import cover_days
 from rostertui.core.check.grid import Grid
-from rostertui.core.check.messages import day as day_text
-from rostertui.core.check.messages import number
 from rostertui.core.models.common import OFF, WEEKDAYS
 from rostertui.core.models.requests import Leave, Request
 from rostertui.core.models.staff import Person
 from rostertui.core.stats import PersonStats
+from rostertui.core.words import day as day_text
+from rostertui.core.words import number
 from rostertui.tui.state import Session
 
 DAY_NAMES = ("Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun")

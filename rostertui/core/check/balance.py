@@ -10,7 +10,7 @@ from __future__ import annotations
 import math
 from fractions import Fraction
 
-from rostertui.core.check import messages as fmt
+from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
 from rostertui.core.check.result import Violation, violation
 from rostertui.core.models.common import OFF

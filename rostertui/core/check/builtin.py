@@ -10,7 +10,7 @@ from __future__ import annotations
 
 from datetime import date
 
-from rostertui.core.check import messages as fmt
+from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
 from rostertui.core.check.result import Violation
 from rostertui.core.models.common import OFF, WEEKDAYS

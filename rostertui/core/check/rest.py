@@ -6,7 +6,7 @@ before the history row (or before the period without one) is rest.
 
 from __future__ import annotations
 
-from rostertui.core.check import messages as fmt
+from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
 from rostertui.core.check.result import Violation, violation
 from rostertui.core.check.timeline import longest_free

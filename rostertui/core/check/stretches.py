@@ -12,7 +12,7 @@ from __future__ import annotations
 
 from collections.abc import Callable
 
-from rostertui.core.check import messages as fmt
+from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid, runs
 from rostertui.core.check.result import Violation, violation
 from rostertui.core.models.common import OFF

@@ -7,7 +7,7 @@ holiday is a one-day weekend, a weekend cut by the period edge still counts.
 
 from __future__ import annotations
 
-from rostertui.core.check import messages as fmt
+from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
 from rostertui.core.check.result import Violation, violation
 from rostertui.core.models.common import OFF

@@ -34,6 +34,7 @@ import tomli_w
 import tomlkit
 from tomlkit.items import Comment
 
+from rostertui.core import words
 from rostertui.core.check import check_roster
 from rostertui.core.check.grid import Grid
 from rostertui.core.cycle.history import HoursBefore, history_rows, hours_before, mixed_windows
@@ -178,7 +179,7 @@ def edited(
 
 
 def _day(d: date) -> str:
-    return f"{d.day} {d:%b %Y}"
+    return f"{words.day(d)} {d.year}"
 
 
 def dumps_history(

@@ -8,10 +8,7 @@ from datetime import date
 from rostertui.core.models import rules as R
 from rostertui.core.models.shifts import Cover
 from rostertui.core.models.workspace import Workspace
-
-
-def day(d: date) -> str:
-    return f"{d:%a} {d.day} {d:%b}"
+from rostertui.core.words import weekday_day as day
 
 
 def span(first: date, last: date) -> str:

@@ -20,10 +20,10 @@ from textual.screen import ModalScreen
 from textual.widgets import Button, Input, Label, Static
 
 from rostertui.core.check import Violation
-from rostertui.core.check.messages import day as day_text
 from rostertui.core.errors import EditError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.words import day as day_text
 from rostertui.tui.repairs import AbsencePlan, SwapPlan, parse_day
 from rostertui.tui.state import EditRefused, Session
 from rostertui.tui.widgets.status import violation_line

@@ -15,8 +15,8 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.widgets import DataTable, Footer, Static
 
-from rostertui.core.check.messages import number
 from rostertui.core.stats import PersonStats
+from rostertui.core.words import number
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.state import Session

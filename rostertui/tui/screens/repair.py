@@ -17,8 +17,8 @@ from textual.binding import Binding
 from textual.widget import Widget
 from textual.widgets import Button, DataTable, Input, Label, Static
 
-from rostertui.core.check.messages import day as day_text
 from rostertui.core.errors import EditError
+from rostertui.core.words import day as day_text
 from rostertui.tui.repairs import parse_day
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
 from rostertui.tui.state import Session

@@ -13,7 +13,7 @@ from textual.containers import Horizontal
 from textual.widgets import DataTable, Footer, Label, Select, Static
 
 from rostertui.core.check import Violation
-from rostertui.core.check.messages import day as day_text
+from rostertui.core.words import day as day_text
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.state import Session

@@ -16,8 +16,8 @@ from rich.segment import Segment
 from rich.style import Style
 from textual.strip import Strip
 
-from rostertui.core.check.messages import number
 from rostertui.core.models.common import OFF
+from rostertui.core.words import month, number
 from rostertui.tui.state import Session
 from rostertui.tui.view import DayColumn, GridView, granted
 
@@ -123,8 +123,8 @@ class Painter:
         s, lay, view = self.s, self.layout, self.view
         if line == 0:
             first, last = view.days[0].date, view.days[-1].date
-            label = f"{first:%b %Y}" if (first.year, first.month) == (last.year, last.month) \
-                else f"{first:%b}-{last:%b %Y}"
+            one = (first.year, first.month) == (last.year, last.month)
+            label = f"{month(first)}" + ("" if one else f"-{month(last)}") + f" {last.year}"
             fixed = Segment(fit(" " + label, lay.fixed_w), s["header"])
             stats = [Segment(fit(name, w, "right") + " ", s["header"]) for name, w in STATS]
         else:

@@ -6,7 +6,7 @@ from rich.text import Text
 from textual.widgets import Static
 
 from rostertui.core.check import Violation
-from rostertui.core.check.messages import day as day_text
+from rostertui.core.words import day as day_text
 from rostertui.tui.state import Session
 from rostertui.tui.view import GridView, cell_text, cover_text, person_summary
 

@@ -18,11 +18,11 @@ from fractions import Fraction
 from zoneinfo import ZoneInfo
 
 from rostertui.core.check.grid import Grid
-from rostertui.core.check.messages import number
 from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.shifts import Shift
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.words import number
 
 # A spreadsheet reads a cell starting with one of these as a formula (or, for tab
 # and carriage return, may drop the character and then read one).

@@ -14,11 +14,11 @@ from datetime import date, timedelta
 
 from rostertui.core.check import CheckResult, Violation, check_roster
 from rostertui.core.check.grid import Grid
-from rostertui.core.check.messages import day, number
 from rostertui.core.io.export.common import need_roster, notes, shift_times
 from rostertui.core.io.export.html_page import esc, page, table
 from rostertui.core.models.common import OFF, WEEKDAYS
 from rostertui.core.models.workspace import EffectiveRule, Workspace
+from rostertui.core.words import day, number
 
 CAUTION = (
     "Rule presets are aids, not legal advice: local law, collective agreements and "

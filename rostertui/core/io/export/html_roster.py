@@ -13,13 +13,13 @@ from datetime import date
 
 from rostertui.core.check.builtin import cover_days
 from rostertui.core.check.grid import Grid, paid_hours
-from rostertui.core.check.messages import MONTHS, day
 from rostertui.core.io.export.common import hours_text, need_roster, notes, shift_times
 from rostertui.core.io.export.html_page import esc, page, table
 from rostertui.core.models.common import OFF, WEEKDAYS
 from rostertui.core.models.shifts import Cover
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.stats import PersonStats, roster_stats
+from rostertui.core.words import MONTHS, day
 
 
 def day_classes(ws: Workspace, d: date) -> str:
