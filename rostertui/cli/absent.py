@@ -3,18 +3,15 @@
 from __future__ import annotations
 
 import argparse
-import dataclasses
 from datetime import date
 from pathlib import Path
 
 from rostertui.cli.args import cell_line, iso_date, violation_line
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, warn
-from rostertui.core.check import check_roster
+from rostertui.core.edit.plans import plan_absence
 from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.transaction import transaction
-from rostertui.core.repair.absence import record_absence
-from rostertui.core.repair.impact import impact
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
@@ -47,12 +44,10 @@ def do_absent(workspace: str | Path, person: str, first: date, last: date | None
     warn(ws.warnings)
     assert ws.path is not None
     try:
-        absence = record_absence(ws, person, first, last, reason, credit_hours)
+        plan = plan_absence(ws, ws.roster, person, first, last, reason, credit_hours)
     except EditError as exc:
         return fail(str(exc))
-    before = check_roster(ws)
-    after_ws = dataclasses.replace(ws, requests=absence.requests, roster=absence.roster)
-    effect = impact(before, check_roster(after_ws))
+    absence, effect = plan.absence, plan.impact
     with transaction(ws.path, "absent") as tx:  # both files, or neither
         tx.save(absence.requests)  # the leave first: it is what the user typed
         if absence.cleared and absence.roster is not None:

@@ -8,13 +8,13 @@ from pathlib import Path
 
 from rostertui.cli.args import cell_line, iso_date, violation_line
 from rostertui.cli.output import EXIT_HARD, EXIT_OK, fail, print_json, save_and_warn, warn
-from rostertui.core.check import Violation, check_roster
+from rostertui.core.check import Violation
+from rostertui.core.edit.plans import plan_swap
 from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff
-from rostertui.core.repair.impact import Impact, impact
-from rostertui.core.repair.swap import swap
+from rostertui.core.repair.impact import Impact
 
 
 def register(verbs: argparse._SubParsersAction) -> None:
@@ -43,12 +43,12 @@ def do_swap(workspace: str | Path, person: str, day: date, person2: str,
     warn(ws.warnings)
     assert ws.path is not None
     try:
-        roster, changed = swap(ws, ws.roster, person, day, person2, day2)
+        plan = plan_swap(ws, ws.roster, person, day, person2, day2)
     except EditError as exc:
         return fail(str(exc))
-    effect = impact(check_roster(ws), check_roster(ws, roster))
+    changed, effect = plan.cells, plan.impact
     if changed and not dry_run:
-        save_and_warn(roster, ws.path)
+        save_and_warn(plan.roster, ws.path)
     after = effect.after
     if as_json:
         print_json({"changed": [c.to_json() for c in changed],

@@ -16,6 +16,7 @@ from textual.reactive import reactive
 from textual.screen import ModalScreen, Screen
 from textual.worker import Worker, WorkerState
 
+from rostertui.core.edit.session import Session
 from rostertui.core.intake.requests_csv import RequestsImport
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.messages import GotoCell, RosterSolved
@@ -32,7 +33,6 @@ from rostertui.tui.screens.roster import RosterScreen
 from rostertui.tui.screens.solve import SearchScreen, SolveScreen, SolveSettings
 from rostertui.tui.screens.versions import VersionsScreen
 from rostertui.tui.screens.violations import ViolationsScreen
-from rostertui.tui.state import Session
 
 
 class RosterApp(App[int]):

@@ -9,8 +9,8 @@ from typing import TYPE_CHECKING
 from textual.message import Message
 
 if TYPE_CHECKING:  # the solver (OR-Tools) is imported when the first solve starts
+    from rostertui.core.edit.session import Session
     from rostertui.core.solver import SolveOutcome, SolveProgress
-    from rostertui.tui.state import Session
 
 
 class GotoCell(Message):

@@ -10,18 +10,18 @@ from pathlib import Path
 import pytest
 from textual.widgets import DataTable, Input, Static
 
+from rostertui.core.edit.plans import plan_absence
+from rostertui.core.edit.session import Session
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.tui.app import RosterApp
-from rostertui.tui.repairs import plan_absence
 from rostertui.tui.screens.changes import AbsenceDialog, SwapDialog
 from rostertui.tui.screens.repair import RepairScreen
 from rostertui.tui.screens.roster import RosterScreen
 from rostertui.tui.screens.solve import SolveSettings
 from rostertui.tui.screens.versions import PublishDialog, VersionsScreen
-from rostertui.tui.state import Session
 from tests.tui.conftest import run
 from tests.tui.pilot import cell_segment, grid_of, status_text
 
@@ -155,8 +155,8 @@ def first_short(session: Session) -> tuple[str, int]:
     for pid in session.ws.person_ids:
         for day in range(28):
             if session.code(pid, day) != "-":
-                plan = plan_absence(session.ws, session.roster, session.check, pid,
-                                    session.ws.unit.dates[day])
+                plan = plan_absence(session.ws, session.roster, pid, session.ws.unit.dates[day],
+                                    check=session.check)
                 if plan.short:
                     return pid, day
     raise AssertionError("no single absence leaves the cover short")

@@ -8,12 +8,12 @@ from pathlib import Path
 
 from textual.widgets import Static
 
+from rostertui.core.edit.session import changed_cells
 from rostertui.core.io.load import load_workspace
 from rostertui.tui.app import RosterApp
 from rostertui.tui.screens.help import HelpScreen
 from rostertui.tui.screens.roster import RosterScreen
 from rostertui.tui.screens.solve import SolveScreen, SolveSettings
-from rostertui.tui.state import changed_cells
 from tests.tui.conftest import run
 from tests.tui.pilot import grid_of, row_text
 

@@ -35,8 +35,8 @@ def test_no_core_module_imports_textual() -> None:
 
 
 def test_the_session_and_view_are_free_of_textual() -> None:
-    """state.py and view.py hold the editing rules; they are testable without a terminal."""
-    code = ("import sys, rostertui.tui.state, rostertui.tui.view;"
+    """session.py and view.py (core/edit) hold the editing rules: testable without a terminal."""
+    code = ("import sys, rostertui.core.edit.session, rostertui.core.edit.view;"
             "print([m for m in sys.modules if m.split('.')[0] == 'textual'])")
     done = subprocess.run([sys.executable, "-c", code], capture_output=True, text=True,
                           check=True, cwd=REPO)

@@ -20,12 +20,13 @@ from textual.screen import ModalScreen
 from textual.widgets import Button, Input, Label, Static
 
 from rostertui.core.check import Violation
+from rostertui.core.edit.forms import parse_day
+from rostertui.core.edit.plans import AbsencePlan, SwapPlan
+from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.words import day as day_text
-from rostertui.tui.repairs import AbsencePlan, SwapPlan, parse_day
-from rostertui.tui.state import EditRefused, Session
 from rostertui.tui.widgets.status import violation_line
 
 
@@ -148,7 +149,7 @@ class AbsenceDialog(ModalScreen[AbsencePlan | None]):
                 raise EditError(f"credit hours: {credit_text!r} is not a number") from None
             plan = self.session.absent(self.person, first, last, self.value("reason") or None,
                                        credit)
-        except (EditError, EditRefused) as exc:
+        except EditError as exc:
             self.query_one("#problem", Static).update(Text(str(exc), style="bold #ff6b6b"))
             self.app.bell()
             return

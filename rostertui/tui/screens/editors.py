@@ -11,12 +11,12 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.widgets import DataTable, Footer, TabbedContent, TabPane
 
+from rostertui.core.edit.session import Session
 from rostertui.core.models.requests import Leave, Request
 from rostertui.core.models.shifts import Cover, Shift
 from rostertui.core.models.staff import Person
 from rostertui.tui.messages import WorkspaceEdited
 from rostertui.tui.screens.panel import PanelScreen
-from rostertui.tui.state import Session
 from rostertui.tui.widgets.list_editor import ListEditor, ListSpec
 from rostertui.tui.widgets.rules_editor import RulesEditor
 from rostertui.tui.widgets.status import SummaryBar

@@ -15,11 +15,11 @@ from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.widgets import DataTable, Footer, Static
 
+from rostertui.core.edit.session import Session
 from rostertui.core.stats import PersonStats
 from rostertui.core.words import number
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
-from rostertui.tui.state import Session
 from rostertui.tui.widgets.bars import bar, hours_bar, range_bar
 from rostertui.tui.widgets.status import SummaryBar
 

@@ -17,11 +17,11 @@ from textual.binding import Binding
 from textual.widget import Widget
 from textual.widgets import Button, DataTable, Input, Label, Static
 
+from rostertui.core.edit.forms import parse_day
+from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError
 from rostertui.core.words import day as day_text
-from rostertui.tui.repairs import parse_day
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
-from rostertui.tui.state import Session
 
 
 def shown(code: str) -> str:

@@ -15,12 +15,12 @@ from textual.reactive import reactive
 from textual.screen import Screen
 from textual.widgets import Footer
 
-from rostertui.core.errors import InputError
+from rostertui.core.edit.plans import AbsencePlan
+from rostertui.core.edit.session import Session
+from rostertui.core.errors import EditError, InputError
 from rostertui.core.io.published import Published, load_published
 from rostertui.core.repair.diff import roster_diff
-from rostertui.tui.repairs import AbsencePlan
 from rostertui.tui.screens.changes import AbsenceDialog, SwapDialog, code_text
-from rostertui.tui.state import EditRefused, Session
 from rostertui.tui.widgets.grid import RosterGrid
 from rostertui.tui.widgets.status import StatusLine, SummaryBar
 
@@ -112,7 +112,7 @@ class RosterScreen(Screen):
     def _edit(self, event: RosterGrid.EditRequested) -> None:
         try:
             change = self.session.set_cell(event.person, event.day, event.text)
-        except EditRefused as exc:
+        except EditError as exc:
             self.refused(f"not changed: {exc}")
             return
         self.note = "" if change is not None else "unchanged: the cell already holds that"
@@ -161,7 +161,7 @@ class RosterScreen(Screen):
         (p1, d1), (p2, d2) = self.mark, (grid.person, grid.day)
         try:
             plan = self.session.preview_swap(p1, d1, p2, d2 if d2 != d1 else None)
-        except EditRefused as exc:
+        except EditError as exc:
             self.refused(f"no swap: {exc}")
             return
         if not plan.cells:

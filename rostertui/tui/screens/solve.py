@@ -29,9 +29,9 @@ from textual.widget import Widget
 from textual.widgets import Button, Input, Label, Sparkline, Static
 from textual.worker import Worker, WorkerState
 
+from rostertui.core.edit.session import Session, changed_cells
 from rostertui.core.solver.summary import bound_sources, improvement_story
 from rostertui.tui.messages import ProgressRelay, RosterSolved, SolveProgressed
-from rostertui.tui.state import Session, changed_cells
 
 
 @dataclass(frozen=True)

@@ -19,11 +19,11 @@ from textual.containers import Horizontal, Vertical
 from textual.screen import ModalScreen
 from textual.widgets import Button, DataTable, Input, Label, Static
 
+from rostertui.core.edit.session import Session
 from rostertui.core.errors import InputError
 from rostertui.core.io.published import Published, list_published
 from rostertui.core.repair.diff import roster_diff
 from rostertui.tui.screens.dialogs import ErrorDialog, notify_written
-from rostertui.tui.state import Session
 
 
 class PublishDialog(ModalScreen[str | None]):

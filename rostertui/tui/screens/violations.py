@@ -13,10 +13,10 @@ from textual.containers import Horizontal
 from textual.widgets import DataTable, Footer, Label, Select, Static
 
 from rostertui.core.check import Violation
+from rostertui.core.edit.session import Session
 from rostertui.core.words import day as day_text
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
-from rostertui.tui.state import Session
 from rostertui.tui.widgets.status import HARD_MARK, SOFT_MARK, SummaryBar, violation_line
 
 ALL = "*"

@@ -16,9 +16,9 @@ from textual.message import Message
 from textual.scroll_view import ScrollView
 from textual.strip import Strip
 
+from rostertui.core.edit.session import Session
+from rostertui.core.edit.view import GridView
 from rostertui.core.models.common import OFF
-from rostertui.tui.state import Session
-from rostertui.tui.view import GridView
 from rostertui.tui.widgets.grid_paint import HEADER, STYLE_NAMES, Layout, Painter, Row
 from rostertui.tui.widgets.palette import shift_colours
 

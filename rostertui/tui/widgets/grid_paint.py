@@ -16,10 +16,10 @@ from rich.segment import Segment
 from rich.style import Style
 from textual.strip import Strip
 
+from rostertui.core.edit.session import Session
+from rostertui.core.edit.view import DayColumn, GridView, granted
 from rostertui.core.models.common import OFF
 from rostertui.core.words import month, number
-from rostertui.tui.state import Session
-from rostertui.tui.view import DayColumn, GridView, granted
 
 HEADER = 2
 STATS = (("hours", 8), ("nts", 4), ("wknd", 5), ("req", 5))

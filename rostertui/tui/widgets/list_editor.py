@@ -17,12 +17,12 @@ from textual.binding import Binding
 from textual.containers import Grid, Horizontal, Vertical
 from textual.widgets import Button, DataTable, Input, Label, Static
 
+from rostertui.core.edit.files import apply
+from rostertui.core.edit.forms import build_item, field_text, key_of
+from rostertui.core.edit.session import Session
 from rostertui.core.errors import InputError
 from rostertui.core.models.workspace import Workspace
-from rostertui.tui.editing import apply
-from rostertui.tui.forms import build_item, field_text, key_of
 from rostertui.tui.messages import WorkspaceEdited
-from rostertui.tui.state import Session
 
 
 @dataclass(frozen=True)

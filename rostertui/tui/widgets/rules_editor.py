@@ -18,14 +18,14 @@ from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
 from textual.widgets import Button, DataTable, Static, TextArea
 
+from rostertui.core.edit.files import apply
+from rostertui.core.edit.session import Session
 from rostertui.core.errors import InputError
 from rostertui.core.io.save import as_toml_data
 from rostertui.core.io.toml_merge import merge_text, same_data
 from rostertui.core.models.rules import RULE_KINDS
 from rostertui.core.models.workspace import EffectiveRule
-from rostertui.tui.editing import apply
 from rostertui.tui.messages import WorkspaceEdited
-from rostertui.tui.state import Session
 
 TEMPLATE = 'id = "max-nights-in-row"\nkind = "max-consecutive-shift"\nshift = "@night"\n' \
            'count = 3\nweight = 40\nsource = "local agreement"\n'

@@ -6,9 +6,9 @@ from rich.text import Text
 from textual.widgets import Static
 
 from rostertui.core.check import Violation
+from rostertui.core.edit.session import Session
+from rostertui.core.edit.view import GridView, cell_text, cover_text, person_summary
 from rostertui.core.words import day as day_text
-from rostertui.tui.state import Session
-from rostertui.tui.view import GridView, cell_text, cover_text, person_summary
 
 HARD_MARK, SOFT_MARK = "✖", "▲"
 

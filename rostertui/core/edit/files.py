@@ -17,14 +17,14 @@ from pathlib import Path
 
 from pydantic import BaseModel
 
+from rostertui.core.edit.rosters import keep_people
+from rostertui.core.edit.session import Session
 from rostertui.core.io.atomic import write_atomic
 from rostertui.core.io.load import load_workspace, workspace_files
 from rostertui.core.io.save import save
 from rostertui.core.io.transaction import transaction
 from rostertui.core.models.requests import RequestsFile
 from rostertui.core.models.staff import Staff
-from rostertui.tui.rosters import keep_people
-from rostertui.tui.state import Session
 
 
 def apply(session: Session, changed: list[BaseModel],

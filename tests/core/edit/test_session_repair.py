@@ -12,12 +12,13 @@ from pathlib import Path
 
 import pytest
 
+from rostertui.core.edit.files import apply
+from rostertui.core.edit.session import Session
+from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.staff import Staff
 from rostertui.core.models.workspace import Workspace
-from rostertui.tui.editing import apply
-from rostertui.tui.state import EditRefused, Session
 from tests.conftest import REPO
 
 START = date(2027, 3, 15)
@@ -66,9 +67,9 @@ def test_two_people_on_two_days_exchange_both_days(session: Session) -> None:
 
 def test_a_swap_of_a_locked_or_same_cell_is_refused(session: Session) -> None:
     session.toggle_lock("c01", 0)
-    with pytest.raises(EditRefused, match="locked"):
+    with pytest.raises(EditError, match="locked"):
         session.preview_swap("c01", 0, "c02")
-    with pytest.raises(EditRefused, match="itself"):
+    with pytest.raises(EditError, match="itself"):
         session.swap("c02", 1, "c02", 1)
     assert session.swap("c04", 2, "c05", 2) is None  # both off: nothing to exchange
 
@@ -95,11 +96,11 @@ def test_an_absence_changes_both_files_and_undo_restores_both(session: Session) 
 def test_an_absence_outside_the_period_or_with_a_bad_credit_changes_nothing(
         session: Session) -> None:
     roster, requests, depth = session.roster, session.requests, len(session._undo)
-    with pytest.raises(EditRefused, match="outside the period"):
+    with pytest.raises(EditError, match="outside the period"):
         session.absent("c03", date(2027, 5, 1))
-    with pytest.raises(EditRefused, match="credit_hours"):
+    with pytest.raises(EditError, match="credit_hours"):
         session.absent("c03", START, None, "sick", 30)
-    with pytest.raises(EditRefused, match="ends"):
+    with pytest.raises(EditError, match="ends"):
         session.absent("c03", date(2027, 3, 20), date(2027, 3, 19))
     assert (session.roster, session.requests, len(session._undo)) == (roster, requests, depth)
 
@@ -140,8 +141,8 @@ def test_an_editor_change_of_two_files_is_all_or_nothing_when_killed(
         "import sys\n"
         "from rostertui.core.io.load import load_workspace\n"
         "from rostertui.core.models.staff import Staff\n"
-        "from rostertui.tui.editing import apply\n"
-        "from rostertui.tui.state import Session\n"
+        "from rostertui.core.edit.files import apply\n"
+        "from rostertui.core.edit.session import Session\n"
         f"s = Session(load_workspace({str(clinic)!r}))\n"
         "people = [p.model_copy(update={'name': 'Renamed'}) if p.id == 'c01' else p\n"
         "          for p in s.ws.staff.person]\n"

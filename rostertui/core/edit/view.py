@@ -16,15 +16,12 @@ from datetime import date
 from rostertui.core.check import Violation
 from rostertui.core.check.builtin import cover_days
 from rostertui.core.check.grid import Grid
+from rostertui.core.edit.session import Session
 from rostertui.core.models.common import OFF, WEEKDAYS
 from rostertui.core.models.requests import Leave, Request
 from rostertui.core.models.staff import Person
 from rostertui.core.stats import PersonStats
-from rostertui.core.words import day as day_text
-from rostertui.core.words import number
-from rostertui.tui.state import Session
-
-DAY_NAMES = ("Mon", "Tue", "Wed", "Thu", "Fri", "Sat", "Sun")
+from rostertui.core.words import WEEKDAY_NAMES, number, weekday_day
 
 
 @dataclass(frozen=True)
@@ -38,7 +35,7 @@ class DayColumn:
 
     @property
     def long(self) -> str:
-        return f"{DAY_NAMES[self.date.weekday()]} {day_text(self.date)}"
+        return weekday_day(self.date)
 
 
 @dataclass(frozen=True)
@@ -102,7 +99,7 @@ class GridView:
         holidays = set(ws.unit.holidays)
         weekend = {WEEKDAYS.index(w) for w in ws.unit.weekend}
         days = [
-            DayColumn(i, d, DAY_NAMES[d.weekday()][:2], d.weekday() in weekend, d in holidays,
+            DayColumn(i, d, WEEKDAY_NAMES[d.weekday()][:2], d.weekday() in weekend, d in holidays,
                       i > 0 and d.weekday() == 0)
             for i, d in enumerate(ws.unit.dates)
         ]

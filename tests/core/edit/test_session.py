@@ -7,10 +7,11 @@ from pathlib import Path
 
 import pytest
 
+from rostertui.core.edit.session import Session, changed_cells
+from rostertui.core.errors import EditError
 from rostertui.core.io.load import load_workspace
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
-from rostertui.tui.state import EditRefused, Session, changed_cells
 
 RITA = "c13"  # on leave 15-18 Mar 2027, the first four days of the clinic's period
 
@@ -36,7 +37,7 @@ def test_codes_are_forgiven_their_case_and_unknown_ones_refused(clinic_ws: Works
     s = Session(clinic_ws)
     s.set_cell("c01", 3, "n")
     assert s.code("c01", 3) == "N"
-    with pytest.raises(EditRefused, match="no shift 'Q'; shifts: E, L, N"):
+    with pytest.raises(EditError, match="no shift 'Q'; shifts: E, L, N"):
         s.set_cell("c01", 3, "Q")
     assert s.set_cell("c01", 3, "N") is None  # already there: no undo step
     for off in ("-", " ", "off", "OFF"):
@@ -50,7 +51,7 @@ def test_a_locked_cell_refuses_edits_until_unlocked(clinic_ws: Workspace) -> Non
     s.set_cell("c01", 2, "L")
     assert s.toggle_lock("c01", 2) is True
     assert [(lk.person, lk.dates) for lk in s.roster.lock] == [("c01", [date(2027, 3, 17)])]
-    with pytest.raises(EditRefused, match="locked"):
+    with pytest.raises(EditError, match="locked"):
         s.set_cell("c01", 2, "E")
     s.toggle_lock("c01", 5)
     assert s.roster.lock[0].dates == [date(2027, 3, 17), date(2027, 3, 20)]

@@ -8,11 +8,11 @@ from pathlib import Path
 
 import pytest
 
+from rostertui.core.edit.session import Session
 from rostertui.core.io import save as save_module
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.published import load_published
 from rostertui.core.io.transaction import JOURNAL
-from rostertui.tui.state import Session
 
 
 def test_a_save_that_cannot_keep_comments_gives_a_notice(

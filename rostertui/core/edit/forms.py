@@ -1,4 +1,5 @@
-"""Text in a form <-> the fields of a file model's list item (a person, a leave, a shift...).
+"""Text in a form <-> the fields of a file model's list item (a person, a leave, a shift...),
+and a date typed in a form.
 
 Pure: no textual. The text is turned into plain values by each field's type (dates,
 numbers, lists split on commas) and the item is built *without* validation: the loader
@@ -14,6 +15,10 @@ from datetime import date
 from typing import Annotated, Any, Literal, Union, get_args, get_origin
 
 from pydantic import BaseModel
+
+from rostertui.core.errors import EditError
+from rostertui.core.models.workspace import Workspace
+from rostertui.core.words import month_number
 
 
 def _base(annotation: Any) -> tuple[type | None, bool]:
@@ -87,3 +92,23 @@ def build_item(model: type[BaseModel], texts: dict[str, str]) -> BaseModel:
     values = {name: parse_field(model, name, text) for name, text in texts.items()}
     given = {k: v for k, v in values.items() if v is not None}
     return model.model_construct(**given)
+
+
+def parse_day(ws: Workspace, text: str) -> date:
+    """A date typed in a form: 2027-03-20, "20 Mar" (as the grid shows dates) or "20"
+    (that day of the month, in the period). Raises EditError."""
+    text = text.strip()
+    try:
+        return date.fromisoformat(text)
+    except ValueError:
+        pass
+    parts = text.replace("/", " ").split()
+    found: list[date] = []
+    if parts and parts[0].isdigit() and len(parts) <= 2:
+        month = month_number(parts[1]) if len(parts) == 2 else None
+        if len(parts) == 1 or month is not None:
+            found = [d for d in ws.unit.dates
+                     if d.day == int(parts[0]) and month in (None, d.month)]
+    if not found:
+        raise EditError(f"{text!r} is not a date in the period: type 2027-03-20, 20 Mar or 20")
+    return found[0]

@@ -1,8 +1,8 @@
-"""The editing session behind the UI: the workspace, the current roster, its check.
+"""The editing session: the workspace, the current roster, its check.
 
 Pure Python (no textual import), so every editing rule is unit-tested without a
-terminal. A roster is treated as immutable: each change builds a new `Roster`
-and pushes (before, after) on the undo stack, so undo, redo and "unsaved" are
+terminal; the UI edits through it. A roster is treated as immutable: each change
+builds a new `Roster` and pushes (before, after) on the undo stack, so undo, redo and "unsaved" are
 plain comparisons. The requests file is held the same way: an absence adds leave
 and clears shifts in one step, so a step records both files, and undo restores both
 exactly. The session's workspace always carries the current requests, so the check,
@@ -18,6 +18,8 @@ from datetime import date
 from pathlib import Path
 
 from rostertui.core.check import CheckResult, check_roster
+from rostertui.core.edit.plans import AbsencePlan, SwapPlan, date_of, plan_absence, plan_swap
+from rostertui.core.edit.rosters import changed_cells
 from rostertui.core.errors import EditError, Problem
 from rostertui.core.io.published import Published, stage_publish
 from rostertui.core.io.transaction import Transaction, transaction
@@ -27,16 +29,10 @@ from rostertui.core.models.roster import Lock, Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.rows import normalised
 from rostertui.core.stats import RosterStats, roster_stats
-from rostertui.tui.repairs import AbsencePlan, SwapPlan, plan_absence, plan_swap
-from rostertui.tui.rosters import changed_cells
 
-__all__ = ["Change", "EditRefused", "Session", "changed_cells"]
+__all__ = ["Change", "Session", "changed_cells"]
 
 UNDO_DEPTH = 500
-
-
-class EditRefused(ValueError):
-    """A hand edit the session will not make; the message says why, in words."""
 
 
 @dataclass(frozen=True)
@@ -117,7 +113,7 @@ class Session:
 
     def resolve_code(self, typed: str) -> str:
         """The shift code a typed text means ("-", "off", "" and " " mean off);
-        case is forgiven when only one code matches. Raises EditRefused."""
+        case is forgiven when only one code matches. Raises EditError."""
         text = typed.strip()
         if text in ("", OFF) or text.lower() == "off":
             return OFF
@@ -126,7 +122,7 @@ class Session:
         folded = [c for c in self.codes if c.lower() == text.lower()]
         if len(folded) == 1:
             return folded[0]
-        raise EditRefused(f"no shift {text!r}; shifts: {', '.join(self.codes)} and - (off)")
+        raise EditError(f"no shift {text!r}; shifts: {', '.join(self.codes)} and - (off)")
 
     def workspace_for_solve(self) -> Workspace:
         """The workspace with the current roster (warm start, locks) in place of the file's."""
@@ -138,7 +134,7 @@ class Session:
         code = self.resolve_code(typed)
         self._need_cell(pid, day)
         if self.locked(pid, day):
-            raise EditRefused("the cell is locked; unlock it first")
+            raise EditError("the cell is locked; unlock it first")
         old = self.roster.rows[pid]
         if old[day] == code:
             return None
@@ -173,11 +169,10 @@ class Session:
 
     def preview_swap(self, pid: str, day: int, pid2: str, day2: int | None = None) -> SwapPlan:
         """What exchanging the cells would change and do to the check; nothing applied.
-        Two people on two days exchange both days (four cells). Raises EditRefused."""
-        try:
-            return plan_swap(self.ws, self.roster, self.check, pid, day, pid2, day2)
-        except EditError as exc:
-            raise EditRefused(str(exc)) from None
+        Two people on two days exchange both days (four cells). Raises EditError."""
+        first = date_of(self.ws, day)
+        second = date_of(self.ws, day2) if day2 is not None else None
+        return plan_swap(self.ws, self.roster, pid, first, pid2, second, self.check)
 
     def swap(self, pid: str, day: int, pid2: str, day2: int | None = None) -> Change | None:
         """Exchange the cells, undoably; None when they hold the same codes."""
@@ -187,12 +182,9 @@ class Session:
     def absent(self, pid: str, first: date, last: date | None = None, reason: str | None = None,
                credit_hours: float | None = None) -> AbsencePlan:
         """Record an absence as leave and clear the person's shifts on those days, in one
-        undoable step. Raises EditRefused (nothing changed) with the reason."""
-        try:
-            plan = plan_absence(self.ws, self.roster, self.check, pid, first, last, reason,
-                                credit_hours)
-        except EditError as exc:
-            raise EditRefused(str(exc)) from None
+        undoable step. Raises EditError (nothing changed) with the reason."""
+        plan = plan_absence(self.ws, self.roster, pid, first, last, reason or None, credit_hours,
+                            self.check)
         self._apply(normalised(self.ws, plan.roster), plan.label, plan.requests)
         return plan
 
@@ -260,9 +252,9 @@ class Session:
     # -- internals ----------------------------------------------------------------------
     def _need_cell(self, pid: str, day: int) -> None:
         if pid not in self.roster.rows:
-            raise EditRefused(f"no person {pid!r} in staff.toml")
+            raise EditError(f"no person {pid!r} in staff.toml")
         if not 0 <= day < self.ws.unit.days:
-            raise EditRefused(f"day {day + 1} is outside the period")
+            raise EditError(f"day {day + 1} is outside the period")
 
     def _apply(self, roster: Roster, label: str, requests: RequestsFile | None = None) -> Change:
         requests = self.requests if requests is None else requests

@@ -1,16 +1,12 @@
-"""What the grid shows (pure): cover rows, violations by cell, words; text bars; the relay."""
+"""What the grid shows (pure): cover rows, violations by cell, words; form texts."""
 
 from __future__ import annotations
 
-import threading
 from datetime import date
 
+from rostertui.core.edit.session import Session
+from rostertui.core.edit.view import GridView, cell_text, cover_text
 from rostertui.core.models.workspace import Workspace
-from rostertui.core.solver.run import SolveProgress
-from rostertui.tui.messages import ProgressRelay, SolveProgressed
-from rostertui.tui.state import Session
-from rostertui.tui.view import GridView, cell_text, cover_text
-from rostertui.tui.widgets.bars import bar, hours_bar, range_bar
 
 
 def test_cover_rows_join_entries_of_the_same_shift_and_skill(clinic_ws: Workspace) -> None:
@@ -57,51 +53,10 @@ def test_the_cell_in_words(clinic_ws: Workspace) -> None:
                     " · asks the day off (weight 5, daughter's birthday): NOT granted")
 
 
-def test_bars_fill_to_scale_with_eighths() -> None:
-    assert bar(5, 10, 10).plain == "█████     "
-    assert bar(10, 10, 4).plain == "████"
-    assert bar(1, 4, 2).plain == "▌ "
-    assert bar(1, 16, 2).plain == "▏ "
-    assert bar(0, 0, 3).plain == "   "
-
-
-def test_hours_bar_marks_the_band_the_target_and_outside() -> None:
-    inside = hours_bar(150, 120, 165, 160, 200, 20)
-    assert inside.plain.startswith("███████████████") and inside.plain[16] == "│"
-    assert "#8cc866" in str(inside.spans[0].style)  # green inside the band
-    below = hours_bar(60, 120, 165, None, 200, 20)
-    assert "#ff6b6b" in str(below.spans[0].style)  # red outside it
-
-
-def test_range_bar_shows_min_mean_max() -> None:
-    assert range_bar(2, 5, 8, 10, 11).plain == "  ├──●──┤  "
-
-
-def test_the_relay_keeps_one_message_in_flight_whatever_the_flood() -> None:
-    posted: list[SolveProgressed] = []
-    relay = ProgressRelay(posted.append)
-
-    def flood(k: int) -> None:
-        for i in range(2000):
-            relay(SolveProgress(elapsed=i / 1000, penalty=10_000 - i, bound=k))
-
-    threads = [threading.Thread(target=flood, args=(k,)) for k in range(4)]
-    for t in threads:
-        t.start()
-    for t in threads:
-        t.join()
-    assert relay.received == 8000 and len(posted) == 1  # nobody took the first one yet
-    latest = relay.take()
-    assert latest is not None and latest.penalty == 10_000 - 1999
-    relay(SolveProgress(9.0, 5, 0))
-    assert len(posted) == 2 and posted[-1].progress.penalty == 5
-    assert posted[0].can_replace(posted[1])
-
-
 def test_form_text_becomes_typed_values_and_bad_text_is_left_for_the_loader() -> None:
+    from rostertui.core.edit.forms import build_item, field_text
     from rostertui.core.models.requests import Leave
     from rostertui.core.models.shifts import Cover
-    from rostertui.tui.forms import build_item, field_text
 
     leave = build_item(Leave, {"person": "c01", "from_": "2027-03-20", "to": "",
                                "credit_hours": "7.5"})
@@ -109,15 +64,3 @@ def test_form_text_becomes_typed_values_and_bad_text_is_left_for_the_loader() ->
     assert field_text(leave, "from_") == "2027-03-20" and field_text(leave, "to") == ""
     cover = build_item(Cover, {"shift": "E", "days": "mon, tue sat", "min": "two"})
     assert cover.days == ["mon", "tue", "sat"] and cover.min == "two"
-
-
-def test_shift_colours_follow_the_time_of_day() -> None:
-    from rostertui.core.models.shifts import Shift
-    from rostertui.tui.widgets.palette import DAYTIME, EVENING, MORNING, NIGHT, shift_colours
-
-    shifts = [Shift(code=c, name=c, start=a, end=b) for c, a, b in (
-        ("A", "05:00", "13:00"), ("B", "07:00", "17:00"), ("R", "09:00", "17:00"),
-        ("C", "13:00", "21:00"), ("X", "21:00", "05:00"))]
-    colours = shift_colours(shifts)
-    assert colours == {"A": MORNING[0], "B": MORNING[1], "R": DAYTIME[0], "C": EVENING[0],
-                       "X": NIGHT[0]}

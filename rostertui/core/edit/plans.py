@@ -1,8 +1,10 @@
-"""Swaps and absences planned on the session's roster before anything changes. Pure.
+"""Swaps and absences planned on a roster before anything changes. Pure.
 
-A plan holds the new roster (and requests), the cells that change and the
-`Impact` on the check: the violations the change would create and those it would
-resolve. The session applies a plan as one undoable step; the UI shows it first.
+The one swap -> check -> impact wiring, used by the editing session and by the
+CLI's `swap` and `absent` verbs alike. A plan holds the new roster (and
+requests), the cells that change and the `Impact` on the check: the violations
+the change would create and those it would resolve. The session applies a plan
+as one undoable step (the UI shows it first); the CLI writes it.
 """
 
 from __future__ import annotations
@@ -36,7 +38,7 @@ class SwapPlan:
 class AbsencePlan:
     label: str
     absence: Absence
-    roster: Roster
+    roster: Roster | None  # None: there is no roster yet
     impact: Impact
 
     @property
@@ -69,52 +71,30 @@ def swap_label(ws: Workspace, person: str, first: date, person2: str,
     return f"swap {name} and {name2} on {day_text(first)} and {day_text(second)}"
 
 
-def plan_swap(ws: Workspace, roster: Roster, check: CheckResult, person: str, day: int,
-              person2: str, day2: int | None = None) -> SwapPlan:
-    """Exchange two cells (one person on two days, two people on one day) or, for two
-    people on two days, both days' cells. Raises EditError (locked, same cell...)."""
-    first = date_of(ws, day)
-    second = date_of(ws, day2) if day2 is not None else None
+def plan_swap(ws: Workspace, roster: Roster | None, person: str, first: date, person2: str,
+              second: date | None = None, check: CheckResult | None = None) -> SwapPlan:
+    """Exchange two cells (one person on two dates, two people on one date) or, for two
+    people on two dates, both dates' cells. `check`: the roster's, when known. Raises
+    EditError (no roster, locked, same cell...)."""
     new, cells = swap(ws, roster, person, first, person2, second)
-    after = check_roster(ws, new)
+    before = check if check is not None else check_roster(ws, roster)
     label = swap_label(ws, person, first, person2, second)
-    return SwapPlan(label, cells, new, impact(check, after))
+    return SwapPlan(label, cells, new, impact(before, check_roster(ws, new)))
 
 
-def plan_absence(ws: Workspace, roster: Roster, check: CheckResult, person: str, first: date,
+def plan_absence(ws: Workspace, roster: Roster | None, person: str, first: date,
                  last: date | None = None, reason: str | None = None,
-                 credit_hours: float | None = None) -> AbsencePlan:
-    """Leave for `person` from `first` to `last`, their shifts then cleared. Raises
-    EditError (unknown person, dates outside the period, a credit out of range)."""
+                 credit_hours: float | None = None,
+                 check: CheckResult | None = None) -> AbsencePlan:
+    """Leave for `person` from `first` to `last`, their shifts then cleared. `check`: the
+    roster's, when known. Raises EditError (unknown person, dates outside the period, a
+    credit out of range)."""
     absence = record_absence(dataclasses.replace(ws, roster=roster), person, first, last,
-                             reason or None, credit_hours)
+                             reason, credit_hours)
+    before = check if check is not None else check_roster(ws, roster)
     new = absence.roster or roster
     after = check_roster(dataclasses.replace(ws, requests=absence.requests), new)
     last = last or first
     when = day_text(first) if last == first else span(first, last)
     name = ws.person_by_id[person].name
-    return AbsencePlan(f"{name} absent {when}", absence, new, impact(check, after))
-
-
-MONTHS = {m.lower(): i + 1 for i, m in enumerate(
-    ("Jan", "Feb", "Mar", "Apr", "May", "Jun", "Jul", "Aug", "Sep", "Oct", "Nov", "Dec"))}
-
-
-def parse_day(ws: Workspace, text: str) -> date:
-    """A date typed in a form: 2027-03-20, "20 Mar" (as the grid shows dates) or "20"
-    (that day of the month, in the period). Raises EditError."""
-    text = text.strip()
-    try:
-        return date.fromisoformat(text)
-    except ValueError:
-        pass
-    parts = text.replace("/", " ").split()
-    found: list[date] = []
-    if parts and parts[0].isdigit() and len(parts) <= 2:
-        month = MONTHS.get(parts[1][:3].lower()) if len(parts) == 2 else None
-        if len(parts) == 1 or month is not None:
-            found = [d for d in ws.unit.dates
-                     if d.day == int(parts[0]) and month in (None, d.month)]
-    if not found:
-        raise EditError(f"{text!r} is not a date in the period: type 2027-03-20, 20 Mar or 20")
-    return found[0]
+    return AbsencePlan(f"{name} absent {when}", absence, new, impact(before, after))
