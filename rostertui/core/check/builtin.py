@@ -12,8 +12,9 @@ from datetime import date
 
 from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
-from rostertui.core.check.result import Violation
+from rostertui.core.check.result import RequestOutcome, Violation
 from rostertui.core.models.common import OFF, WEEKDAYS
+from rostertui.core.models.requests import Request
 from rostertui.core.models.roster import Roster
 from rostertui.core.models.shifts import Cover
 from rostertui.core.models.workspace import Workspace
@@ -120,23 +121,43 @@ def cover(ws: Workspace, grid: Grid) -> list[Violation]:
     return out
 
 
-def requests(ws: Workspace, grid: Grid) -> list[Violation]:
-    """`[[request]]`: penalty `weight` when not honoured (dates outside the period ignored)."""
-    out: list[Violation] = []
+def honoured(r: Request, has: str) -> bool:
+    """Whether a request is honoured by the code in its cell: want "off" -> off; want a
+    code -> that code; avoid a code -> anything else."""
+    if r.want == "off":
+        return has == OFF
+    if r.want is not None:
+        return has == r.want
+    return has != r.avoid
+
+
+def request_outcomes(ws: Workspace, grid: Grid) -> list[RequestOutcome]:
+    """Every request inside the period, in file order, and whether it is honoured."""
+    out: list[RequestOutcome] = []
     for r in ws.requests.request:
         row = grid.rows.get(r.person)
         if row is None or not grid.in_period(r.date):
             continue
-        has = row[grid.index(r.date)]
-        when = fmt.day(r.date)
+        i = grid.index(r.date)
+        out.append(RequestOutcome(r, i, row[i], honoured(r, row[i])))
+    return out
+
+
+def requests(ws: Workspace, grid: Grid,
+             outcomes: list[RequestOutcome] | None = None) -> list[Violation]:
+    """`[[request]]`: penalty `weight` when not honoured (dates outside the period ignored)."""
+    out: list[Violation] = []
+    for o in outcomes if outcomes is not None else request_outcomes(ws, grid):
+        if o.honoured:
+            continue
+        r, has, when = o.request, o.code, fmt.day(o.request.date)
         if r.want == "off":
-            broken, text = has != OFF, f"asked for the day off on {when}, has {has}"
+            text = f"asked for the day off on {when}, has {has}"
         elif r.want is not None:
-            broken, text = has != r.want, f"asked for {r.want} on {when}, has {has}"
+            text = f"asked for {r.want} on {when}, has {has}"
         else:
-            broken, text = has == r.avoid, f"asked not to work {r.avoid} on {when}, has {has}"
-        if broken:
-            out.append(Violation(
-                "request", "request", False, r.person, (r.date,), 1, r.weight, text, None
-            ))
+            text = f"asked not to work {r.avoid} on {when}, has {has}"
+        out.append(Violation(
+            "request", "request", False, r.person, (r.date,), 1, r.weight, text, None
+        ))
     return out

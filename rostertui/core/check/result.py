@@ -1,6 +1,9 @@
 """What the checker reports: one Violation per entry, a CheckResult for the roster.
 
-The JSON shapes follow rules.md, "What the checker reports".
+The JSON shapes follow rules.md, "What the checker reports". Besides the
+violations, a CheckResult carries what the checker worked out on the way, for
+the statistics and the UI to read rather than compute again: the `Grid` it
+checked and whether each request in the period is honoured.
 """
 
 from __future__ import annotations
@@ -9,6 +12,8 @@ from dataclasses import dataclass, field
 from datetime import date
 from typing import Any
 
+from rostertui.core.check.grid import Grid
+from rostertui.core.models.requests import Request
 from rostertui.core.models.workspace import EffectiveRule
 
 
@@ -70,11 +75,23 @@ def violation(
     )
 
 
+@dataclass(frozen=True)
+class RequestOutcome:
+    """A request inside the period and the checker's verdict on it."""
+
+    request: Request
+    day: int  # index in the period
+    code: str  # what the roster holds that day
+    honoured: bool
+
+
 @dataclass
 class CheckResult:
     """Every violation of one roster, with the totals rules.md defines."""
 
     violations: list[Violation] = field(default_factory=list)
+    requests: list[RequestOutcome] = field(default_factory=list)  # file order
+    grid: Grid | None = field(default=None, compare=False, repr=False)  # the roster checked
 
     @property
     def hard_violations(self) -> int:

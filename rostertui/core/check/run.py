@@ -40,11 +40,12 @@ def check_roster(ws: Workspace, roster: Roster | None = None) -> CheckResult:
     the effective set's order, cover, requests.
     """
     grid = Grid(ws, roster if roster is not None else ws.roster)
+    outcomes = builtin.request_outcomes(ws, grid)
     found: list[Violation] = []
     found += builtin.person_cells(ws, grid)
     found += builtin.locks(ws, grid)
     for eff in ws.rules:
         found += EVALUATORS[eff.rule.kind](ws, eff, grid)
     found += builtin.cover(ws, grid)
-    found += builtin.requests(ws, grid)
-    return CheckResult(found)
+    found += builtin.requests(ws, grid, outcomes)
+    return CheckResult(found, outcomes, grid)

@@ -282,4 +282,4 @@ class Session:
                     locks.setdefault(lock.person, set()).add(i)
         self._locks = {p: frozenset(days) for p, days in locks.items()}
         self.check = check_roster(self.ws, self.roster)
-        self.stats = roster_stats(self.ws, self.roster)
+        self.stats = roster_stats(self.ws, self.roster, self.check)

@@ -3,7 +3,10 @@
 `GridView.build(session)` indexes everything once per change: the day columns,
 one cover row per (shift, skill) of `[[cover]]` (entries with the same pair on
 different days share a row), the people assigned per cover row and day, and
-every violation of the check by the cell, person or cover cell it concerns.
+every violation of the check by the cell, person or cover cell it concerns. It reads
+the grid the check was made on (`CheckResult.grid`), so a change builds one grid for
+the check, the statistics and the view together; whether a request is granted is the
+checker's verdict.
 """
 
 from __future__ import annotations
@@ -15,6 +18,7 @@ from datetime import date
 
 from rostertui.core.check import Violation
 from rostertui.core.check.builtin import cover_days
+from rostertui.core.check.builtin import honoured as granted
 from rostertui.core.check.grid import Grid
 from rostertui.core.edit.session import Session
 from rostertui.core.models.common import OFF, WEEKDAYS
@@ -95,7 +99,7 @@ class GridView:
     @classmethod
     def build(cls, session: Session) -> GridView:
         ws = session.ws
-        grid = Grid(ws, session.roster)
+        grid = session.check.grid or Grid(ws, session.roster)
         holidays = set(ws.unit.holidays)
         weekend = {WEEKDAYS.index(w) for w in ws.unit.weekend}
         days = [
@@ -202,15 +206,6 @@ def person_summary(session: Session, pid: str) -> str:
     if asked:
         parts.append(f"requests {p.requests_granted}/{asked} granted")
     return " · ".join(parts)
-
-
-def granted(r: Request, code: str) -> bool:
-    """Whether a request is honoured by the code in its cell."""
-    if r.want == "off":
-        return code == OFF
-    if r.want is not None:
-        return code == r.want
-    return code != r.avoid
 
 
 def request_text(r: Request, code: str) -> str:

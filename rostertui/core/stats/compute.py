@@ -1,10 +1,13 @@
-"""`roster_stats`: the statistics of a roster, computed on the checker's `Grid`."""
+"""`roster_stats`: the statistics of a roster, computed on the checker's `Grid`; whether a
+request is honoured is the checker's verdict (`CheckResult.requests`)."""
 
 from __future__ import annotations
 
 from fractions import Fraction
 
+from rostertui.core.check.builtin import request_outcomes
 from rostertui.core.check.grid import Grid, exact
+from rostertui.core.check.result import CheckResult, RequestOutcome
 from rostertui.core.check.stretches import stretches
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster
@@ -28,20 +31,12 @@ def _first(rules: list[HoursRule], key: str) -> Fraction | None:
     return None
 
 
-def _requests(ws: Workspace, grid: Grid) -> dict[str, list[bool]]:
-    """Per person, whether each request inside the period was honoured."""
+def _requests(grid: Grid, outcomes: list[RequestOutcome]) -> dict[str, list[bool]]:
+    """Per person, whether each request inside the period was honoured (the checker's
+    verdicts)."""
     found: dict[str, list[bool]] = {pid: [] for pid in grid.rows}
-    for r in ws.requests.request:
-        row = grid.rows.get(r.person)
-        if row is None or not grid.in_period(r.date):
-            continue
-        has = row[grid.index(r.date)]
-        if r.want == "off":
-            found[r.person].append(has == OFF)
-        elif r.want is not None:
-            found[r.person].append(has == r.want)
-        else:
-            found[r.person].append(has != r.avoid)
+    for o in outcomes:
+        found[o.request.person].append(o.honoured)
     return found
 
 
@@ -94,8 +89,12 @@ def _group(name: str, everyone: bool, people: list[PersonStats]) -> GroupStats:
     )
 
 
-def roster_stats(ws: Workspace, roster: Roster | None = None) -> RosterStats:
+def roster_stats(ws: Workspace, roster: Roster | None = None,
+                 check: CheckResult | None = None) -> RosterStats:
     """Per-person and per-group statistics of `roster` (default: `ws.roster`).
+
+    `check`: the checker's result for that roster, when at hand: its grid and its
+    verdicts on the requests are used, not worked out again.
 
     With no roster at all, every person has zero of everything: no shifts, no hours
     (leave credit is not counted either) and no request granted or denied; the
@@ -103,10 +102,11 @@ def roster_stats(ws: Workspace, roster: Roster | None = None) -> RosterStats:
     """
     roster = roster if roster is not None else ws.roster
     rostered = roster is not None
-    grid = Grid(ws, roster)
+    grid = check.grid if check is not None and check.grid is not None else Grid(ws, roster)
+    outcomes = check.requests if check is not None else request_outcomes(ws, grid)
     weekend_days = frozenset(i for a, b in grid.weekends for i in range(a, b + 1))
     holidays = frozenset(grid.index(d) for d in set(ws.unit.holidays) if grid.in_period(d))
-    honoured = _requests(ws, grid) if rostered else {pid: [] for pid in grid.rows}
+    honoured = _requests(grid, outcomes) if rostered else {pid: [] for pid in grid.rows}
     people = [
         _person(ws, grid, pid, honoured[pid], weekend_days, holidays, rostered)
         for pid in ws.person_ids

@@ -4,6 +4,9 @@ from __future__ import annotations
 
 from datetime import date
 
+import pytest
+
+from rostertui.core.check.grid import Grid
 from rostertui.core.edit.session import Session
 from rostertui.core.edit.view import GridView, cell_text, cover_text
 from rostertui.core.models.workspace import Workspace
@@ -64,3 +67,20 @@ def test_form_text_becomes_typed_values_and_bad_text_is_left_for_the_loader() ->
     assert field_text(leave, "from_") == "2027-03-20" and field_text(leave, "to") == ""
     cover = build_item(Cover, {"shift": "E", "days": "mon, tue sat", "min": "two"})
     assert cover.days == ["mon", "tue", "sat"] and cover.min == "two"
+
+
+def test_a_keystroke_builds_one_grid_for_check_statistics_and_view(
+        clinic_ws: Workspace, monkeypatch: pytest.MonkeyPatch) -> None:
+    s = Session(clinic_ws)
+    built: list[Grid] = []
+    init = Grid.__init__
+
+    def counted(self: Grid, *args: object) -> None:
+        built.append(self)
+        init(self, *args)  # type: ignore[arg-type]
+
+    monkeypatch.setattr(Grid, "__init__", counted)
+    s.set_cell("c01", 5, "L")
+    view = GridView.build(s)
+    assert built == [s.check.grid]  # the check's grid, read by the statistics and the view
+    assert view.cover[3].assigned[5] == sum(1 for row in s.roster.rows.values() if row[5] == "L")
