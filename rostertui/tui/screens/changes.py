@@ -26,7 +26,7 @@ from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
-from rostertui.core.words import day as day_text
+from rostertui.core.words import weekday_day
 from rostertui.tui.widgets.status import violation_line
 
 
@@ -49,7 +49,7 @@ def swap_text(ws: Workspace, plan: SwapPlan) -> Text:
     text = Text("Cells that change\n", style="bold #6a94e0")
     for c in plan.cells:
         name = ws.person_by_id[c.person].name if c.person in ws.person_by_id else c.person
-        text.append(f"  {name:<20} {c.date:%a} {day_text(c.date):<7} ")
+        text.append(f"  {name:<20} {weekday_day(c.date):<11} ")
         text.append(f"{code_text(c.before)} → {code_text(c.after)}\n", style="bold")
     found = plan.impact
     text.append(f"\nCreates ({len(found.created)})\n", style="bold #ff6b6b")

@@ -21,6 +21,7 @@ from rostertui.core.edit.forms import parse_day
 from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError
 from rostertui.core.words import day as day_text
+from rostertui.core.words import weekday_day
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
 
 
@@ -122,7 +123,7 @@ class RepairScreen(SearchScreen):
             name = ws.person_by_id[cell.person].name if cell.person in ws.person_by_id \
                 else cell.person
             fixed = "; ".join(v.message for v in c.fixes) or "made room for another change"
-            table.add_row(name, f"{cell.date:%a} {day_text(cell.date)}",
+            table.add_row(name, weekday_day(cell.date),
                           f"{shown(cell.before)} → {shown(cell.after)}", fixed)
         table.display = bool(result.changed)
 
