@@ -1,6 +1,6 @@
 """The rostertui app: bindings, modes, and the few actions every screen shares.
 
-The screens do the work. State is one `Session` (state.py); after each change the
+The screens do the work. State is one `Session` (core/edit/session.py); after each change the
 app bumps the reactive `revision`, and every screen watching it repaints.
 """
 
