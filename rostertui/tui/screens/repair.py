@@ -19,6 +19,7 @@ from textual.widgets import Button, DataTable, Input, Label, Static
 
 from rostertui.core.check.messages import day as day_text
 from rostertui.core.errors import EditError
+from rostertui.tui.messages import SessionChanged
 from rostertui.tui.repairs import parse_day
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
 from rostertui.tui.state import Session
@@ -138,7 +139,7 @@ class RepairScreen(SearchScreen):
             return
         label = f"repair from {day_text(result.start_from)} ({n} cells)"
         self.session.replace(result.outcome.roster, label)
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
         self.notify(f"{label} kept; ctrl+s saves, ctrl+z undoes", timeout=5)
         self.dismiss()
 
