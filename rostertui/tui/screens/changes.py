@@ -59,9 +59,9 @@ def swap_text(ws: Workspace, plan: SwapPlan) -> Content:
     text += (violations_text(ws, found.resolved, "nothing"))
     before, after = found.before, found.after
     change = found.penalty_change
-    text += Content.styled(f"\n\nPenalty {before.penalty} → {after.penalty} ({change:+d}) · hard "
-                f"violations {before.hard_violations} → {after.hard_violations}",
-                style="bold")
+    text += Content.styled(f"\n\nPenalty {before.penalty} → {after.penalty} ({change:+d}) · "
+                           f"hard violations {before.hard_violations} → "
+                           f"{after.hard_violations}", style="bold")
     return text
 
 

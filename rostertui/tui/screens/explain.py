@@ -125,8 +125,8 @@ def verdict_text(done: Explained) -> Content:
         text = Content.styled("✔ A roster exists that keeps every hard rule.", style=f"bold {GOOD}")
         if done.hard:
             text += Content.styled(f" The roster in the grid breaks {done.hard} hard rule"
-                        f"{'s' if done.hard != 1 else ''}: F5 builds one that keeps them all, "
-                        "F8 repairs it with few changes.", style="bold")
+                                   f"{'s' if done.hard != 1 else ''}: F5 builds one that keeps "
+                                   "them all, F8 repairs it with few changes.", style="bold")
         return text
     if result.decided:
         n = len(result.reasons)

@@ -262,7 +262,7 @@ class SearchScreen(ModalScreen[None]):
         elif event.state in (WorkerState.ERROR, WorkerState.CANCELLED):
             self.phase = "failed"  # the app's one worker-failure handler shows the error
             self.say(Content.styled(f"The {self.WORK_NAME} failed; the grid is unchanged.",
-                          style=f"bold {BAD}"))
+                                    style=f"bold {BAD}"))
 
     def no_roster(self, status: str) -> None:
         why = ("No roster keeps every hard rule: the rules, cover, leave and locks "
