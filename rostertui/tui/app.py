@@ -19,7 +19,16 @@ from textual.worker import Worker, WorkerState
 from rostertui.core.edit.session import Session
 from rostertui.core.intake.requests_csv import RequestsImport
 from rostertui.core.models.workspace import Workspace
-from rostertui.tui.messages import GotoCell, RosterSolved
+from rostertui.tui.messages import (
+    CompareWith,
+    ExplainRequested,
+    ExplanationKept,
+    GotoCell,
+    RosterSolved,
+    SessionChanged,
+    SolveSettingsChosen,
+    WorkspaceEdited,
+)
 from rostertui.tui.screens.dialogs import ConfirmQuit, ErrorDialog, notify_written
 from rostertui.tui.screens.editors import EditorsScreen
 from rostertui.tui.screens.explain import Explained, ExplainScreen
@@ -36,7 +45,7 @@ from rostertui.tui.screens.violations import ViolationsScreen
 
 
 class RosterApp(App[int]):
-    CSS_PATH = "app.tcss"
+    CSS_PATH = ["app.tcss", "widgets/grid.tcss"]
     TITLE = "rostertui"
     MODES = {"roster": RosterScreen, "violations": ViolationsScreen, "fairness": FairnessScreen,
              "edit": EditorsScreen}
@@ -267,6 +276,33 @@ class RosterApp(App[int]):
         outcome = event.outcome
         self.session.replace(outcome.roster, f"solve ({outcome.status})")
         self.revised()
+
+    @on(SessionChanged)
+    def _session_changed(self) -> None:
+        self.revised()
+
+    @on(WorkspaceEdited)
+    def _workspace_edited(self, event: WorkspaceEdited) -> None:
+        self.replace_session(event.session)
+
+    @on(CompareWith)
+    def _compare_with(self, event: CompareWith) -> None:
+        self.compare_to = event.version
+
+    @on(SolveSettingsChosen)
+    def _solve_settings(self, event: SolveSettingsChosen) -> None:
+        self.solve_settings = event.settings
+
+    @on(ExplainRequested)
+    def _explain_requested(self) -> None:
+        self.open_explanation()
+
+    @on(ExplanationKept)
+    def _explanation_kept(self, event: ExplanationKept) -> None:
+        """The newest roster's explanation wins (an older run may end later)."""
+        kept = self.explained
+        if kept is None or kept.revision <= event.explained.revision:
+            self.explained = event.explained
 
     def on_worker_state_changed(self, event: Worker.StateChanged) -> None:
         """The one place a failed worker becomes an error dialog."""

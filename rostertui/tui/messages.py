@@ -1,4 +1,9 @@
-"""Messages that travel upward between screens and the app, carrying plain data."""
+"""Messages that travel upward between screens and the app, carrying plain data.
+
+Screens never set the app's attributes: they post one of these (to the app, when
+the screen may close before it would pass the message on) and the app changes
+its own state.
+"""
 
 from __future__ import annotations
 
@@ -11,6 +16,8 @@ from textual.message import Message
 if TYPE_CHECKING:  # the solver (OR-Tools) is imported when the first solve starts
     from rostertui.core.edit.session import Session
     from rostertui.core.solver import SolveOutcome, SolveProgress
+    from rostertui.tui.screens.explain import Explained
+    from rostertui.tui.screens.solve import SolveSettings
 
 
 class GotoCell(Message):
@@ -29,6 +36,41 @@ class WorkspaceEdited(Message):
     def __init__(self, session: Session, note: str):
         super().__init__()
         self.session, self.note = session, note
+
+
+class SessionChanged(Message):
+    """The session changed (an edit, a lock, a swap, an absence, a publish): the app bumps
+    its `revision`, and every screen watching it repaints."""
+
+
+class CompareWith(Message):
+    """Diff mode compares with this published version from now on."""
+
+    def __init__(self, version: int):
+        super().__init__()
+        self.version = version
+
+
+class SolveSettingsChosen(Message):
+    """The settings a solve started with: the next solve (and repair, and Why) starts
+    from them."""
+
+    def __init__(self, settings: SolveSettings):
+        super().__init__()
+        self.settings = settings
+
+
+class ExplainRequested(Message):
+    """Open the explanation panel (Why, F10)."""
+
+
+class ExplanationKept(Message):
+    """A decided explanation, posted by its worker thread: the app keeps it for the next
+    F10 while the roster is unchanged (even when the panel was closed meanwhile)."""
+
+    def __init__(self, explained: Explained):
+        super().__init__()
+        self.explained = explained
 
 
 class SolveProgressed(Message):

@@ -89,7 +89,7 @@ def test_a_roster_exists_and_closing_early_is_harmless(tmp_path: Path) -> None:
     async def go() -> None:
         app = RosterApp(load_workspace(night_short(tmp_path, leave=False)), FAST)
         async with app.run_test(size=(120, 40)) as pilot:
-            await pilot.press("f10", "escape")  # closed before the result comes
+            await pilot.press("f10", "f10")  # closed before the result comes (Esc would stop it)
             assert isinstance(app.screen, RosterScreen)
             deadline = time.monotonic() + 20
             while app.explained is None and time.monotonic() < deadline:
@@ -209,5 +209,38 @@ def test_a_gap_reason_leads_to_the_cover_row(tmp_path: Path) -> None:
             assert grid.person is None and grid.day == 2
             cover = grid.view.cover[grid.cover_row]
             assert (cover.shift, cover.skill) == ("N", "rn")
+
+    run(go)
+
+
+def test_esc_stops_a_long_explanation_and_shows_it_stopped(tmp_path: Path) -> None:
+    """100 people x 31 days: Esc during the conflict search stops it; the panel stays,
+    says so, and keeps nothing for the next F10 (a stopped run settles nothing)."""
+    from tests.tui.bigws import make_big_workspace
+
+    ws = load_workspace(make_big_workspace(tmp_path / "big"))
+
+    async def go() -> None:
+        app = RosterApp(ws, FAST)
+        async with app.run_test(size=(120, 40)) as pilot:
+            await pilot.press("f10")
+            screen = app.screen
+            assert isinstance(screen, ExplainScreen)
+            deadline = time.monotonic() + 30
+            while (not screen.step.startswith("looking for hard items")
+                   and screen.phase == "running" and time.monotonic() < deadline):
+                await pilot.pause(0.02)
+            assert screen.phase == "running", "the search ended before Esc"
+            await pilot.press("escape")
+            assert app.screen is screen and screen.cancel.is_set()
+            deadline = time.monotonic() + 60
+            while screen.phase == "running" and time.monotonic() < deadline:
+                await pilot.pause(0.1)
+            assert screen.phase == "done" and screen.done is not None
+            assert screen.done.result.stopped and not screen.done.result.decided
+            assert text_of(screen, "#verdict").startswith("■ Stopped (Esc)")
+            assert app.explained is None
+            await pilot.press("escape")  # now it closes
+            assert isinstance(app.screen, RosterScreen)
 
     run(go)

@@ -6,7 +6,7 @@ import threading
 
 from rostertui.core.solver.run import SolveProgress
 from rostertui.tui.messages import ProgressRelay, SolveProgressed
-from rostertui.tui.widgets.bars import bar, hours_bar, range_bar
+from rostertui.tui.widgets.bars import BarColours, bar, hours_bar, range_bar
 
 
 def test_bars_fill_to_scale_with_eighths() -> None:
@@ -18,11 +18,12 @@ def test_bars_fill_to_scale_with_eighths() -> None:
 
 
 def test_hours_bar_marks_the_band_the_target_and_outside() -> None:
-    inside = hours_bar(150, 120, 165, 160, 200, 20)
+    colours = BarColours(ok="#00ff00", high="#ff0000")  # the panel passes the theme's
+    inside = hours_bar(150, 120, 165, 160, 200, 20, colours)
     assert inside.plain.startswith("███████████████") and inside.plain[16] == "│"
-    assert "#8cc866" in str(inside.spans[0].style)  # green inside the band
-    below = hours_bar(60, 120, 165, None, 200, 20)
-    assert "#ff6b6b" in str(below.spans[0].style)  # red outside it
+    assert "#00ff00" in str(inside.spans[0].style)  # green inside the band
+    below = hours_bar(60, 120, 165, None, 200, 20, colours)
+    assert "#ff0000" in str(below.spans[0].style)  # red outside it
 
 
 def test_range_bar_shows_min_mean_max() -> None:

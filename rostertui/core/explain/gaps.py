@@ -7,6 +7,8 @@ staff, a leave moved, a rule relaxed).
 
 from __future__ import annotations
 
+import threading
+
 from ortools.sat.python import cp_model
 
 from rostertui.core.check import check_roster
@@ -14,16 +16,20 @@ from rostertui.core.explain import words
 from rostertui.core.explain.reasons import Reason
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.model import build_model
+from rostertui.core.solver.primal.watch import stop_on_cancel
 from rostertui.core.solver.run import roster_from
 
 
-def cover_gaps(ws: Workspace, budget: float, workers: int = 0) -> tuple[str, list[Reason]]:
-    """("found" | "infeasible" | "unknown", the gaps as reasons)."""
+def cover_gaps(ws: Workspace, budget: float, workers: int = 0,
+               cancel: threading.Event | None = None) -> tuple[str, list[Reason]]:
+    """("found" | "infeasible" | "unknown", the gaps as reasons); a set `cancel` stops
+    the search (the gaps of the best roster so far, as "unknown")."""
     built = build_model(ws, gap_weight=1)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(0.5, budget)
     solver.parameters.num_workers = workers or 2
-    code = solver.solve(built.model)
+    with stop_on_cancel(solver, cancel):
+        code = solver.solve(built.model)
     if code == cp_model.INFEASIBLE:
         return "infeasible", [Reason(
             "Even with every cover minimum relaxed, the other hard rules (leave, locks, "

@@ -12,6 +12,7 @@ elsewhere.
 from __future__ import annotations
 
 import dataclasses
+import threading
 from dataclasses import dataclass
 from typing import Any
 
@@ -82,11 +83,12 @@ def granted(ws: Workspace, r: Request) -> Workspace:
         update={"rows": rows, "lock": locks}))
 
 
-def price(ws: Workspace, r: Request, options: SolveOptions) -> RequestCost:
+def price(ws: Workspace, r: Request, options: SolveOptions,
+          cancel: threading.Event | None = None) -> RequestCost:
     assert ws.roster is not None
     current = check_roster(ws)
     keep = Keep(rows=full_rows(ws, ws.roster), weight=ws.unit.repair.change_weight)
-    out = solve(granted(ws, r), options, keep=keep)
+    out = solve(granted(ws, r), options, keep=keep, cancel=cancel)
     if out.roster is None:
         status = "impossible" if out.status == "infeasible" else "unknown"
         return RequestCost(r, status, None)

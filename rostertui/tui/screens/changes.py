@@ -11,11 +11,11 @@ from __future__ import annotations
 
 from datetime import date
 
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical, VerticalScroll
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Button, Input, Label, Static
 
@@ -27,6 +27,8 @@ from rostertui.core.errors import EditError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.words import weekday_day
+from rostertui.tui.look import BAD, GOOD, MUTED, TITLE
+from rostertui.tui.messages import SessionChanged
 from rostertui.tui.widgets.status import violation_line
 
 
@@ -34,33 +36,33 @@ def code_text(code: str) -> str:
     return "off" if code == OFF else code
 
 
-def violations_text(ws: Workspace, found: list[Violation], none: str) -> Text:
+def violations_text(ws: Workspace, found: list[Violation], none: str) -> Content:
     if not found:
-        return Text(f"  {none}", style="#8d99a6")
-    lines = []
+        return Content.styled(f"  {none}", style=MUTED)
+    lines: list[Content] = []
     for v in sorted(found, key=lambda v: not v.hard):
         who = f"{ws.person_by_id[v.person].name}: " if v.person in ws.person_by_id else ""
-        lines.append(Text("  ") + violation_line(v, who))
-    return Text("\n").join(lines)
+        lines.append(Content("  ") + violation_line(v, who))
+    return Content("\n").join(lines)
 
 
-def swap_text(ws: Workspace, plan: SwapPlan) -> Text:
+def swap_text(ws: Workspace, plan: SwapPlan) -> Content:
     """The cells that change, what the swap creates and resolves, and the totals."""
-    text = Text("Cells that change\n", style="bold #6a94e0")
+    text = Content.styled("Cells that change\n", style=f"bold {TITLE}")
     for c in plan.cells:
         name = ws.person_by_id[c.person].name if c.person in ws.person_by_id else c.person
-        text.append(f"  {name:<20} {weekday_day(c.date):<11} ")
-        text.append(f"{code_text(c.before)} → {code_text(c.after)}\n", style="bold")
+        text += Content.styled(f"  {name:<20} {weekday_day(c.date):<11} ")
+        text += Content.styled(f"{code_text(c.before)} → {code_text(c.after)}\n", style="bold")
     found = plan.impact
-    text.append(f"\nCreates ({len(found.created)})\n", style="bold #ff6b6b")
-    text.append_text(violations_text(ws, found.created, "no new violation"))
-    text.append(f"\n\nResolves ({len(found.resolved)})\n", style="bold #8fd18f")
-    text.append_text(violations_text(ws, found.resolved, "nothing"))
+    text += Content.styled(f"\nCreates ({len(found.created)})\n", style=f"bold {BAD}")
+    text += (violations_text(ws, found.created, "no new violation"))
+    text += Content.styled(f"\n\nResolves ({len(found.resolved)})\n", style=f"bold {GOOD}")
+    text += (violations_text(ws, found.resolved, "nothing"))
     before, after = found.before, found.after
     change = found.penalty_change
-    text.append(f"\n\nPenalty {before.penalty} → {after.penalty} ({change:+d}) · hard "
-                f"violations {before.hard_violations} → {after.hard_violations}",
-                style="bold")
+    text += Content.styled(f"\n\nPenalty {before.penalty} → {after.penalty} ({change:+d}) · "
+                           f"hard violations {before.hard_violations} → "
+                           f"{after.hard_violations}", style="bold")
     return text
 
 
@@ -150,10 +152,10 @@ class AbsenceDialog(ModalScreen[AbsencePlan | None]):
             plan = self.session.absent(self.person, first, last, self.value("reason") or None,
                                        credit)
         except EditError as exc:
-            self.query_one("#problem", Static).update(Text(str(exc), style="bold #ff6b6b"))
+            self.query_one("#problem", Static).update(Content.styled(str(exc), style=f"bold {BAD}"))
             self.app.bell()
             return
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
         self.dismiss(plan)
 
     @on(Button.Pressed, "#cancel")

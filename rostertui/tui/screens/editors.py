@@ -15,6 +15,7 @@ from rostertui.core.edit.session import Session
 from rostertui.core.models.requests import Leave, Request
 from rostertui.core.models.shifts import Cover, Shift
 from rostertui.core.models.staff import Person
+from rostertui.tui.host import host
 from rostertui.tui.messages import WorkspaceEdited
 from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.widgets.list_editor import ListEditor, ListSpec
@@ -51,7 +52,7 @@ class EditorsScreen(PanelScreen):
         super().__init__()
 
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     def compose(self) -> ComposeResult:
         yield SummaryBar(id="summary")
@@ -88,5 +89,4 @@ class EditorsScreen(PanelScreen):
 
     @on(WorkspaceEdited)
     def _edited(self, event: WorkspaceEdited) -> None:
-        self.app.replace_session(event.session)  # type: ignore[attr-defined]
         self.notify(event.note, timeout=3)

@@ -8,25 +8,28 @@ person and date in the grid. When a roster can keep every hard rule, the request
 the grid's roster denies are priced instead (Enter shows the request's cell).
 
 The last decided result is kept on the app until the roster changes (the app's
-`revision`), so F10 again shows it at once; r runs it again. Esc closes at any
-time: a solve cannot be stopped midway, so a run still going finishes in its
-thread with nothing shown (its result is kept for the next F10, if still current).
-The screen is dismissed with the `GotoCell` to post, or None.
+`revision`): the worker posts it to the app (`ExplanationKept`), so F10 again shows
+it at once; r runs it again. Esc while it runs stops the search (within a fraction
+of a second) and shows what was settled, marked stopped; Esc then closes. F10
+closes at any time: a run still going then finishes unseen in its thread (its
+result is kept for the next F10, if still current). The screen is dismissed with
+the `GotoCell` to post, or None.
 """
 
 from __future__ import annotations
 
 import contextlib
+import threading
 import time
 from dataclasses import dataclass
 from datetime import date
 from typing import TYPE_CHECKING
 
-from rich.text import Text
 from textual import on, work
 from textual.app import App, ComposeResult
 from textual.binding import Binding
 from textual.containers import Vertical
+from textual.content import Content
 from textual.reactive import reactive
 from textual.screen import ModalScreen
 from textual.widgets import Label, OptionList, Static
@@ -36,15 +39,15 @@ from textual.worker import Worker, WorkerState
 from rostertui.core.explain.reasons import Reason
 from rostertui.core.explain.words import day as day_text
 from rostertui.core.models.workspace import Workspace
-from rostertui.tui.messages import ExplainProgressed, GotoCell
+from rostertui.tui.host import host
+from rostertui.tui.look import BAD, GOOD, MUTED, UNSURE
+from rostertui.tui.messages import ExplainProgressed, ExplanationKept, GotoCell
 
 if TYPE_CHECKING:  # the solver (OR-Tools) is imported when the first explanation starts
     from rostertui.core.explain.requests import RequestCost
     from rostertui.core.explain.run import Explanation
 
 UI_LIMIT = 30.0  # seconds at most, whatever the solve's time limit
-MUTED = "#8d99a6"
-GOOD, BAD, UNSURE = "#8cc866", "#ff6b6b", "#f4b942"
 
 
 @dataclass
@@ -113,39 +116,42 @@ def remedies(reason: Reason) -> list[str]:
     return out
 
 
-def verdict_text(done: Explained) -> Text:
+def verdict_text(done: Explained) -> Content:
     result = done.result
+    if result.stopped and not result.decided:
+        return Content.assemble(("■ Stopped (Esc) before it was settled.", f"bold {UNSURE}"),
+                             (" r runs it again · Esc closes.", "bold"))
     if result.feasible:
-        text = Text("✔ A roster exists that keeps every hard rule.", style=f"bold {GOOD}")
+        text = Content.styled("✔ A roster exists that keeps every hard rule.", style=f"bold {GOOD}")
         if done.hard:
-            text.append(f" The roster in the grid breaks {done.hard} hard rule"
-                        f"{'s' if done.hard != 1 else ''}: F5 builds one that keeps them all, "
-                        "F8 repairs it with few changes.", style="bold")
+            text += Content.styled(f" The roster in the grid breaks {done.hard} hard rule"
+                                   f"{'s' if done.hard != 1 else ''}: F5 builds one that keeps "
+                                   "them all, F8 repairs it with few changes.", style="bold")
         return text
     if result.decided:
         n = len(result.reasons)
-        return Text.assemble(
+        return Content.assemble(
             ("✖ No roster can keep every hard rule.", f"bold {BAD}"),
             (f" {n} reason{'s' if n != 1 else ''} below, in plain words; Enter on one shows "
              "its person and date in the grid.", "bold"))
-    return Text.assemble(
+    return Content.assemble(
         (f"? Not settled in {done.limit:g} s: the solver neither found a roster nor proved "
          "that none exists.", f"bold {UNSURE}"),
         (f" The time limit here is the solve's (F5), at most {UI_LIMIT:g} s.", "bold"))
 
 
-def reason_prompt(i: int, reason: Reason) -> Text:
-    return Text.assemble((f"{i}. ", f"bold {UNSURE}"), reason.message)
+def reason_prompt(i: int, reason: Reason) -> Content:
+    return Content.assemble((f"{i}. ", f"bold {UNSURE}"), reason.message)
 
 
-def request_prompt(ws: Workspace, cost: RequestCost) -> Text:
+def request_prompt(ws: Workspace, cost: RequestCost) -> Content:
     if cost.status == "granted" and cost.cost is not None:
         badge = (f"{cost.cost:+d}", f"bold {GOOD if cost.cost <= 0 else UNSURE}")
     elif cost.status == "impossible":
         badge = ("hard", f"bold {BAD}")
     else:
         badge = ("?", f"bold {MUTED}")
-    return Text.assemble((f"{badge[0]:>5} ", badge[1]), cost.message(ws))
+    return Content.assemble((f"{badge[0]:>5} ", badge[1]), cost.message(ws))
 
 
 def request_order(cost: RequestCost) -> tuple[int, int]:
@@ -158,7 +164,9 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
     CSS_PATH = "explain.tcss"
 
     BINDINGS = [
-        Binding("escape,f10", "close", "Close"),
+        Binding("escape", "close", "Stop / close", tooltip="stops a running explanation "
+                "(what was settled stays shown); closes the panel otherwise"),
+        Binding("f10", "hide", "Close", show=False),
         Binding("r", "again", "Run again", tooltip="explain again (a result is kept, and "
                 "shown at once, until the roster changes)"),
         Binding("f1", "app.help", "Help", show=False),
@@ -175,10 +183,11 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
         self.done: Explained | None = None
         self.reasons: list[Reason] = []
         self.costs: list[RequestCost] = []
+        self.cancel = threading.Event()  # Esc sets it: the running explanation stops
 
     @property
     def session(self):
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     def compose(self) -> ComposeResult:
         with Vertical(id="explain-panel"):
@@ -194,8 +203,8 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
 
     def on_mount(self) -> None:
         self.set_interval(0.25, self._tick, name="explain-clock")
-        kept: Explained | None = getattr(self.app, "explained", None)
-        if kept is not None and kept.revision == self.app.revision:  # type: ignore[attr-defined]
+        kept = host(self.app).explained
+        if kept is not None and kept.revision == host(self.app).revision:
             self.phase = "done"
             self.show(kept, kept=True)
         else:
@@ -203,11 +212,11 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
 
     def watch_phase(self, phase: str) -> None:
         self.set_class(phase == "running", "-running")
-        hint = {"running": "Esc closes (the explanation then finishes unseen; F10 shows it "
-                           "if the roster has not changed)",
+        hint = {"running": "Esc stops it · F10 closes (it then finishes unseen; F10 shows "
+                           "it if the roster has not changed)",
                 "done": "r runs again · Esc closes",
                 "failed": "r runs again · Esc closes"}[phase]
-        self.query_one("#explain-hint", Static).update(Text(hint))
+        self.query_one("#explain-hint", Static).update(Content.styled(hint))
 
     # -- running ------------------------------------------------------------------------------
     def start(self) -> None:
@@ -215,6 +224,7 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
 
         session = self.session
         app = self.app
+        self.cancel = threading.Event()
         ws = session.workspace_for_solve()
         hard = session.check.hard_violations
         asks = len(denied(ws, session.check)) if hard == 0 else 0
@@ -228,23 +238,23 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
             lists.clear_options()
             lists.display = False
         self._tick()
-        self.run_explain(app, ws, app.revision, hard, asks)  # type: ignore[attr-defined]
+        self.run_explain(app, ws, host(app).revision, hard, asks, self.cancel)
 
     @work(thread=True, exclusive=True, group="explain", name="explanation",
           exit_on_error=False)
     def run_explain(self, app: App, ws: Workspace, revision: int, hard: int,
-                    asks: int) -> Explained:
+                    asks: int, cancel: threading.Event) -> Explained:
         from rostertui.core.explain.run import explain
 
         began = time.monotonic()
         result = explain(ws, self.limit, self.search_workers, on_progress=self._progress,
-                         price_requests=hard == 0 and asks > 0)
+                         price_requests=hard == 0 and asks > 0, cancel=cancel)
         end = time.monotonic()
         out = Explained(revision, ws, result, self.limit, end - began, end, hard, asks,
                         hard == 0)
-        kept = getattr(app, "explained", None)
-        if result.decided and (kept is None or kept.revision <= revision):
-            app.explained = out  # type: ignore[attr-defined] # kept even if closed by now
+        if result.decided and not result.stopped:  # kept even if closed by now
+            with contextlib.suppress(RuntimeError):  # the app's event loop has closed
+                app.post_message(ExplanationKept(out))
         return out
 
     def _progress(self, text: str) -> None:
@@ -262,7 +272,7 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
         if self.phase != "running":
             return
         elapsed = time.monotonic() - self.started
-        self.query_one("#explain-progress", Static).update(Text.assemble(
+        self.query_one("#explain-progress", Static).update(Content.assemble(
             ("… ", f"bold {UNSURE}"), (self.step, "bold"),
             (f"   {elapsed:.1f} s of at most {self.limit:g} s", MUTED)))
 
@@ -276,7 +286,7 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
             self.phase = "failed"  # the app's one worker-failure handler shows the error
             self.query_one("#explain-progress", Static).update("")
             self.query_one("#verdict", Static).update(
-                Text("The explanation failed; nothing was changed.", style=f"bold {BAD}"))
+                Content.styled("The explanation failed; nothing was changed.", style=f"bold {BAD}"))
 
     # -- the result ---------------------------------------------------------------------------
     def show(self, done: Explained, kept: bool = False) -> None:
@@ -285,10 +295,11 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
         if kept:
             ago = time.monotonic() - done.finished
             when = f"{ago:.0f} s" if ago < 120 else f"{ago / 60:.0f} min"
-            line = Text(f"Explained {when} ago; the roster has not changed since (r runs it "
-                        "again).", style=MUTED)
+            line = Content.styled(f"Explained {when} ago; the roster has not changed since (r "
+                                  "runs it again).", style=MUTED)
         else:
-            line = Text(f"Done in {done.seconds:.1f} s.", style=MUTED)
+            stopped = " Stopped (Esc): what was settled by then." if done.result.stopped else ""
+            line = Content.styled(f"Done in {done.seconds:.1f} s.{stopped}", style=MUTED)
         self.query_one("#explain-progress", Static).update(line)
         self.query_one("#verdict", Static).update(verdict_text(done))
 
@@ -323,18 +334,19 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
             requests.highlighted = min(first, len(self.costs) - 1)
             requests.focus()
         if self.reasons or self.costs:
-            self.query_one("#explain-hint", Static).update(Text(
+            self.query_one("#explain-hint", Static).update(Content.styled(
                 "↑↓ choose · Enter shows it in the grid · r runs again · Esc closes"))
 
-    def _requests_title(self, done: Explained) -> Text:
+    def _requests_title(self, done: Explained) -> Content:
         if not done.priced:
-            return Text("Denied requests are priced against a roster that keeps every hard "
-                        "rule: build one first (F5), then explain again.", style=MUTED)
+            return Content.styled("Denied requests are priced against a roster that keeps every "
+                                  "hard rule: build one first (F5), then explain again.",
+                                  style=MUTED)
         if not done.denied:
-            return Text("The roster in the grid grants every request.", style=MUTED)
+            return Content.styled("The roster in the grid grants every request.", style=MUTED)
         n = len(self.costs)
         some = f"{n} of {done.denied}" if n < done.denied else f"{n}"
-        return Text.assemble(
+        return Content.assemble(
             (f"Requests the grid's roster does not grant ({some} priced in time): ", "bold"),
             ("the change in penalty to grant each with as few changes as possible, and who "
              "would pay it.", MUTED))
@@ -345,7 +357,7 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
             detail.update("")
             return
         ws, reason = self.done.ws, self.reasons[index]
-        text = Text()
+        text = Content()
         names = []
         if reason.people:
             names.append(people_text(ws, reason.people))
@@ -355,18 +367,18 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
                          else f"{day_text(days[0])} to {day_text(days[-1])}")
         if reason.rules:
             names.append("rules: " + ", ".join(reason.rules))
-        text.append("about ", style=MUTED)
-        text.append(" · ".join(names) or "nothing in particular")
+        text += Content.styled("about ", style=MUTED)
+        text += Content.styled(" · ".join(names) or "nothing in particular")
         changes = remedies(reason)
         if changes:
-            text.append("\nto change ", style=MUTED)
-            text.append("; ".join(changes))
+            text += Content.styled("\nto change ", style=MUTED)
+            text += Content.styled("; ".join(changes))
         goto = target(ws, reason)
         if goto is not None:
             who = ws.person_by_id[goto.person].name if goto.person else "the cursor's row"
             when = f" on {day_text(ws.unit.dates[goto.day])}" if goto.day is not None else ""
-            text.append("\nEnter ", style=MUTED)
-            text.append(f"shows {who}{when} in the grid")
+            text += Content.styled("\nEnter ", style=MUTED)
+            text += Content.styled(f"shows {who}{when} in the grid")
         detail.update(text)
 
     # -- events and actions -------------------------------------------------------------------
@@ -408,4 +420,14 @@ class ExplainScreen(ModalScreen[GotoCell | None]):
             self.start()
 
     def action_close(self) -> None:
+        """Esc: stop a running explanation (its end is shown), else close."""
+        if self.phase == "running":
+            self.cancel.set()
+            self.step = "stopping"
+            self._tick()
+        else:
+            self.dismiss(None)
+
+    def action_hide(self) -> None:
+        """F10: close; a running explanation finishes unseen (kept for the next F10)."""
         self.dismiss(None)

@@ -13,14 +13,17 @@ from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
+from textual.content import Content
 from textual.widgets import DataTable, Footer, Static
 
 from rostertui.core.edit.session import Session
 from rostertui.core.stats import PersonStats
 from rostertui.core.words import number
+from rostertui.tui.host import host
+from rostertui.tui.look import BAD, GOOD, MUTED, theme_colour
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
-from rostertui.tui.widgets.bars import bar, hours_bar, range_bar
+from rostertui.tui.widgets.bars import BarColours, bar, hours_bar, range_bar
 from rostertui.tui.widgets.status import SummaryBar
 
 
@@ -43,7 +46,16 @@ class FairnessScreen(PanelScreen):
 
     @property
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
+
+    def bar_colours(self) -> BarColours:
+        """The theme's colours for the bars (DataTable cells are Rich text: resolved here)."""
+        app = self.app
+        return BarColours(ok=theme_colour(app, "success"), high=theme_colour(app, "error"),
+                          plain=theme_colour(app, "secondary-lighten-2"),
+                          band=theme_colour(app, "success-muted"),
+                          track=theme_colour(app, "panel"),
+                          mark=theme_colour(app, "foreground"))
 
     def compose(self) -> ComposeResult:
         yield SummaryBar(id="summary")
@@ -54,6 +66,7 @@ class FairnessScreen(PanelScreen):
 
     def on_mount(self) -> None:
         self.follow_revisions()
+        self.watch(self.app, "theme", self._revised, init=False)  # the bars' colours
         self.reload()
         self.query_one("#people", DataTable).focus()
 
@@ -75,15 +88,16 @@ class FairnessScreen(PanelScreen):
         session = self.session
         self.query_one(SummaryBar).show(session, "fairness")
         wide, narrow = self.bar_widths()
-        self.query_one("#legend", Static).update(Text.assemble(
-            ("█", "#8cc866"), " hours in the contract band ", ("▒", "#263326"), " (",
-            ("█", "#ff6b6b"), " outside), ", ("│", "bold"), " target or mid-band · N nights · "
-            "wkd weekends · req requests granted · run longest stretch · ± hours vs target",
-            style="#aab4be"))
-        self._people(wide, narrow)
-        self._groups(self.group_bar_width())
+        self.query_one("#legend", Static).update(Content.assemble(
+            ("█", GOOD), " hours in the contract band ", ("▒", "$success-muted"), " (",
+            ("█", BAD), " outside), ", ("│", "bold"), " target or mid-band · N nights · "
+            "wkd weekends · req requests granted · run longest stretch · ± hours vs target"
+        ).stylize_before(MUTED))
+        colours = self.bar_colours()
+        self._people(wide, narrow, colours)
+        self._groups(self.group_bar_width(), colours)
 
-    def _people(self, wh: int, w: int) -> None:
+    def _people(self, wh: int, w: int, colours: BarColours) -> None:
         stats = self.session.stats
         people = stats.people
         table = self.query_one("#people", DataTable)
@@ -99,10 +113,11 @@ class FairnessScreen(PanelScreen):
         scale_w = max([stats.weekends_in_period] + [p.weekends for p in people] + [1])
         for p in people:
             table.add_row(
-                p.name, self._hours(p), hours_bar(p.hours, p.hours_min, p.hours_max,
-                                                  p.hours_reference, scale_h, wh),
-                str(p.nights), bar(p.nights, scale_n, w),
-                str(p.weekends), bar(p.weekends, scale_w, w, "#45b5c9"),
+                p.name, self._hours(p, colours), hours_bar(
+                    p.hours, p.hours_min, p.hours_max, p.hours_reference, scale_h, wh, colours),
+                str(p.nights), bar(p.nights, scale_n, w, colours=colours),
+                str(p.weekends), bar(p.weekends, scale_w, w, theme_colour(self.app, "accent"),
+                                     colours),
                 f"{p.requests_granted}/{p.requests_asked}" if p.requests_asked else "-",
                 str(p.longest_stretch), key=p.person,
             )
@@ -110,12 +125,12 @@ class FairnessScreen(PanelScreen):
             table.move_cursor(row=row)
 
     @staticmethod
-    def _hours(p: PersonStats) -> Text:
+    def _hours(p: PersonStats, colours: BarColours) -> Text:
         outside = (p.hours_min is not None and p.hours < p.hours_min) or (
             p.hours_max is not None and p.hours > p.hours_max)
-        return Text(number(p.hours), style="bold #ff6b6b" if outside else "")
+        return Text(number(p.hours), style=f"bold {colours.high}" if outside else "")
 
-    def _groups(self, w: int) -> None:
+    def _groups(self, w: int, colours: BarColours) -> None:
         stats = self.session.stats
         table = self.query_one("#groups", DataTable)
         table.clear(columns=True)
@@ -128,9 +143,10 @@ class FairnessScreen(PanelScreen):
             table.add_row(
                 g.group, str(g.people),
                 number(g.nights.mean) if g.nights.mean is not None else "-",
-                range_bar(g.nights.low, g.nights.mean, g.nights.high, scale_n, w),
+                range_bar(g.nights.low, g.nights.mean, g.nights.high, scale_n, w, colours),
                 number(g.weekends.mean) if g.weekends.mean is not None else "-",
-                range_bar(g.weekends.low, g.weekends.mean, g.weekends.high, scale_w, w),
+                range_bar(g.weekends.low, g.weekends.mean, g.weekends.high, scale_w, w,
+                          colours),
                 _signed(g.hours_deviation.mean),
                 number(g.hours_deviation.spread) if g.hours_deviation.spread is not None
                 else "-",

@@ -7,10 +7,13 @@ from rich.text import Text
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, VerticalScroll
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Static
 
-from rostertui.tui.widgets.palette import shift_colours
+from rostertui.tui.host import host
+from rostertui.tui.look import UNSURE, theme_colour
+from rostertui.tui.widgets.legend import GridLegend
 
 KEY_NAMES = {"minus": "-", "question_mark": "?", "space": "space", "pageup": "PgUp",
              "pagedown": "PgDn", "escape": "Esc", "enter": "Enter", "delete": "Del",
@@ -27,12 +30,14 @@ def keys_text(binding: Binding) -> str:
     return " / ".join(key_name(k.strip()) for k in binding.key.split(","))
 
 
-def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]]]]) -> Table:
+def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]]]],
+                   key_colour: str = "yellow", title_colour: str = "blue") -> Table:
+    """A Rich table (Textual does not restyle it): the colours are given, from the theme."""
     table = Table(show_header=False, box=None, padding=(0, 2, 0, 0), expand=False)
-    table.add_column(style="bold #f4b942", no_wrap=True)
+    table.add_column(style=f"bold {key_colour}", no_wrap=True)
     table.add_column()
     for title, bindings, extra in sections:
-        table.add_row(Text(title, style="bold underline #6a94e0"), "")
+        table.add_row(Text(title, style=f"bold underline {title_colour}"), "")
         for key, what in extra:
             table.add_row(key, what)
         for b in bindings:
@@ -64,7 +69,7 @@ class HelpScreen(ModalScreen[None]):
         from rostertui.tui.widgets.list_editor import ListEditor
         from rostertui.tui.widgets.rules_editor import RulesEditor
 
-        session = self.app.session  # type: ignore[attr-defined]
+        session = host(self.app).session
         codes = ", ".join(session.codes)
         sections = [
             ("Everywhere", RosterApp.BINDINGS, [("ctrl+p", "command palette")]),
@@ -99,42 +104,12 @@ class HelpScreen(ModalScreen[None]):
             ("Quit with unsaved changes", ConfirmQuit.BINDINGS, []),
         ]
         with VerticalScroll(id="help-body"):
-            yield Static(Text("rostertui keys (Esc closes)", style="bold #f4b942"))
+            yield Static(Content.styled("rostertui keys (Esc closes)", f"bold {UNSURE}"))
             with Horizontal(id="help-columns"):
-                yield Static(bindings_table(sections), id="help-keys")
-                yield Static(self.legend(session), id="help-legend")
+                yield Static(bindings_table(sections, theme_colour(self.app, "text-warning"),
+                                            theme_colour(self.app, "text-primary")),
+                             id="help-keys")
+                yield GridLegend(session, id="help-legend")
 
     def on_resize(self) -> None:
         self.set_class(self.size.width >= 150, "-wide")  # keys and legend side by side
-
-    @staticmethod
-    def legend(session) -> Text:
-        text = Text()
-        text.append("In the grid\n", style="bold underline #6a94e0")
-        for code, colour in shift_colours(session.ws.shifts.shift).items():
-            s = session.ws.shift_by_code[code]
-            text.append(f" {code} ", style=f"bold {colour} on #14181d")
-            text.append(f" {s.name} {s.start}-{s.end}\n")
-        for mark, style, meaning in (
-            (" · ", "#56606a on #14181d", "off"),
-            (" ~ ", "#b9a3e3 on #33284a", "leave (hard: no shift that day)"),
-            ("*", "bold #7fd98a", "a request, granted (red: not granted)"),
-            ("#", "bold #7ec8ff", "a locked cell: a solve keeps it; edits need an unlock"),
-            (" E ", "underline on #12545e", "diff mode (ctrl+d): changed since the version "
-                                            "compared with"),
-            (" E ", "bold on #3d6fb5", "the cell marked for a swap (ctrl+x)"),
-            (" E ", "on #7a1f2b", "a cell in a hard violation"),
-            (" E ", "on #5a4514", "a cell in a soft violation (a penalty)"),
-            ("Sa", "#9fc3e0 on #223140", "weekend column"),
-            ("Fr", "#f0b37e on #3d2c1c", "holiday column"),
-            ("✖ ▲", "bold #ff5f5f", "before a name: a whole-period violation (hours, "
-                                   "weekends, shift counts), hard or soft"),
-            (" 2 ", "bold #ffffff on #7a1f2b", "cover row: below min or above max (hard)"),
-            (" 3 ", "#ffe6a8 on #5a4514", "cover row: away from the ideal (soft)"),
-        ):
-            text.append(mark, style=style)
-            text.append(f"  {meaning}\n")
-        text.append("\nRight of the days: hours, nights, weekends worked and requests granted "
-                    "per person; the status lines under the grid explain the cell under the "
-                    "cursor in words.", style="#aab4be")
-        return text

@@ -22,6 +22,7 @@ from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError
 from rostertui.core.words import day as day_text
 from rostertui.core.words import weekday_day
+from rostertui.tui.messages import SessionChanged
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
 
 
@@ -139,7 +140,7 @@ class RepairScreen(SearchScreen):
             return
         label = f"repair from {day_text(result.start_from)} ({n} cells)"
         self.session.replace(result.outcome.roster, label)
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
         self.notify(f"{label} kept; ctrl+s saves, ctrl+z undoes", timeout=5)
         self.dismiss()
 

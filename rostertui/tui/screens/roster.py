@@ -7,10 +7,10 @@ diff mode that highlights the cells changed since a published version.
 
 from __future__ import annotations
 
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
+from textual.content import Content
 from textual.reactive import reactive
 from textual.screen import Screen
 from textual.widgets import Footer
@@ -20,6 +20,9 @@ from rostertui.core.edit.session import Session
 from rostertui.core.errors import EditError, InputError
 from rostertui.core.io.published import Published, load_published
 from rostertui.core.repair.diff import roster_diff
+from rostertui.tui.host import host
+from rostertui.tui.look import MUTED, VALUE
+from rostertui.tui.messages import CompareWith, SessionChanged
 from rostertui.tui.screens.changes import AbsenceDialog, SwapDialog, code_text
 from rostertui.tui.widgets.grid import RosterGrid
 from rostertui.tui.widgets.status import StatusLine, SummaryBar
@@ -49,12 +52,13 @@ class RosterScreen(Screen):
         super().__init__()
         self.typed = ""
         self.note = ""
+        self.compare_to: int | None = None  # the version diff mode compares with (None: last)
         self.compared: Published | None = None
         self.changed: dict[Cell, str] = {}
 
     @property
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     def compose(self) -> ComposeResult:
         yield SummaryBar(id="summary")
@@ -116,7 +120,7 @@ class RosterScreen(Screen):
             self.refused(f"not changed: {exc}")
             return
         self.note = "" if change is not None else "unchanged: the cell already holds that"
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
         if change is None:
             self.update_status()
 
@@ -125,7 +129,7 @@ class RosterScreen(Screen):
         locked = self.session.toggle_lock(event.person, event.day)
         self.note = ("locked: a solve keeps this cell as it is" if locked
                      else "unlocked: a solve may change this cell")
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
 
     def refused(self, note: str) -> None:
         self.note = note
@@ -176,7 +180,7 @@ class RosterScreen(Screen):
             change = self.session.swap(p1, d1, p2, d2 if d2 != d1 else None)
             self.mark = None
             self.note = f"{change.label}: done (ctrl+z undoes)" if change else ""
-            self.app.revised()  # type: ignore[attr-defined]
+            self.app.post_message(SessionChanged())
 
         self.app.push_screen(SwapDialog(self.session, plan), answered)
 
@@ -227,7 +231,8 @@ class RosterScreen(Screen):
     def show_diff(self, on: bool, version: int | None = None) -> None:
         """Diff mode on (against `version`, or the one chosen before, or the last) or off."""
         if version is not None:
-            self.app.compare_to = version  # type: ignore[attr-defined]
+            self.app.post_message(CompareWith(version))
+            self.compare_to = version
         if on and not self._load_compared():
             return
         self.diff = on
@@ -243,7 +248,7 @@ class RosterScreen(Screen):
         session = self.session
         try:
             found = load_published(session.ws.path or ".",
-                                   self.app.compare_to)  # type: ignore[attr-defined]
+                                   self.compare_to)
         except InputError as exc:
             found = None
             self.notify(str(exc), title="diff mode", severity="error", timeout=8)
@@ -261,7 +266,7 @@ class RosterScreen(Screen):
                         if c.person in session.roster.rows}
         return True
 
-    def _diff_line(self) -> Text | None:
+    def _diff_line(self) -> Content | None:
         grid = self.grid
         if not self.diff or self.compared is None or grid.person is None:
             return None
@@ -269,7 +274,7 @@ class RosterScreen(Screen):
         version = f"version {self.compared.version}"
         now = code_text(self.session.code(*key))
         if key in self.changed:
-            return Text(f"changed since {version}: published {code_text(self.changed[key])} → "
-                        f"now {now}", style="bold #4fd1c0")
-        return Text(f"as in {version} ({now}) · {len(self.changed)} cells changed in all",
-                    style="#8d99a6")
+            return Content.styled(f"changed since {version}: published "
+                                  f"{code_text(self.changed[key])} → now {now}", f"bold {VALUE}")
+        return Content.styled(f"as in {version} ({now}) · {len(self.changed)} cells changed in "
+                              "all", MUTED)

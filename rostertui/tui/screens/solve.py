@@ -18,11 +18,11 @@ from collections.abc import Iterable
 from dataclasses import dataclass
 from typing import Any
 
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.reactive import reactive
 from textual.screen import ModalScreen
 from textual.widget import Widget
@@ -31,7 +31,15 @@ from textual.worker import Worker, WorkerState
 
 from rostertui.core.edit.session import Session, changed_cells
 from rostertui.core.solver.summary import bound_sources, improvement_story
-from rostertui.tui.messages import ProgressRelay, RosterSolved, SolveProgressed
+from rostertui.tui.host import host
+from rostertui.tui.look import BAD, GOOD, MUTED, UNSURE, VALUE
+from rostertui.tui.messages import (
+    ExplainRequested,
+    ProgressRelay,
+    RosterSolved,
+    SolveProgressed,
+    SolveSettingsChosen,
+)
 
 
 @dataclass(frozen=True)
@@ -43,28 +51,28 @@ class SolveSettings:
 
 def progress_text(elapsed: float, penalty: int | None, bound: int | None,
                   changes: int | None = None, stage: str = "search",
-                  found_by: str | None = None) -> Text:
-    text = Text.assemble(("elapsed ", "#8d99a6"), (f"{elapsed:6.1f} s", "bold"))
+                  found_by: str | None = None) -> Content:
+    text = Content.assemble(("elapsed ", MUTED), (f"{elapsed:6.1f} s", "bold"))
     if penalty is None and stage == "bound":
-        text.append("   proving a bound (column generation)…", style="#f4b942")
+        text += Content.styled("   proving a bound (column generation)…", style=UNSURE)
     elif penalty is None:
-        text.append("   searching for a first roster…", style="#f4b942")
+        text += Content.styled("   searching for a first roster…", style=UNSURE)
     else:
-        text.append("   penalty ", style="#8d99a6")
-        text.append(f"{penalty}", style="bold #8cc866")
+        text += Content.styled("   penalty ", style=MUTED)
+        text += Content.styled(f"{penalty}", style=f"bold {GOOD}")
     if bound is not None:
-        text.append("   bound ", style="#8d99a6")
-        text.append(f"{bound}", style="bold")
+        text += Content.styled("   bound ", style=MUTED)
+        text += Content.styled(f"{bound}", style="bold")
     if penalty is not None and bound is not None:
         gap = 0.0 if penalty == 0 else max(0.0, (penalty - bound) / abs(penalty))
-        text.append("   gap ", style="#8d99a6")
-        text.append(f"{gap:.1%}", style="bold")
+        text += Content.styled("   gap ", style=MUTED)
+        text += Content.styled(f"{gap:.1%}", style="bold")
     if changes is not None and penalty is not None:
-        text.append("   cells changed ", style="#8d99a6")
-        text.append(f"{changes}", style="bold #45b5c9")
+        text += Content.styled("   cells changed ", style=MUTED)
+        text += Content.styled(f"{changes}", style=f"bold {VALUE}")
     if found_by is not None and penalty is not None:
-        text.append("   by ", style="#8d99a6")
-        text.append(found_by, style="bold #45b5c9")
+        text += Content.styled("   by ", style=MUTED)
+        text += Content.styled(found_by, style=f"bold {VALUE}")
     return text
 
 
@@ -100,7 +108,7 @@ class SearchScreen(ModalScreen[None]):
 
     @property
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     # -- what a subclass says -----------------------------------------------------------------
     def heading(self) -> str:
@@ -162,9 +170,9 @@ class SearchScreen(ModalScreen[None]):
         self.hint(self.HINTS[phase])
 
     def hint(self, text: str) -> None:
-        self.query_one("#hint", Static).update(Text(text))
+        self.query_one("#hint", Static).update(Content.styled(text))
 
-    def say(self, text: str | Text) -> None:
+    def say(self, text: str | Content) -> None:
         self.query_one("#summary", Static).update(text)
 
     # -- starting -----------------------------------------------------------------------------
@@ -197,7 +205,7 @@ class SearchScreen(ModalScreen[None]):
         if settings is None or not self.read_form():
             return
         self.settings = settings
-        self.app.solve_settings = settings  # type: ignore[attr-defined]
+        self.app.post_message(SolveSettingsChosen(settings))
         self.phase = "running"
         self.started = time.monotonic()
         self.set_interval(0.25, self._tick, name="solve-clock")
@@ -253,8 +261,8 @@ class SearchScreen(ModalScreen[None]):
             self.finished(event.worker.result)
         elif event.state in (WorkerState.ERROR, WorkerState.CANCELLED):
             self.phase = "failed"  # the app's one worker-failure handler shows the error
-            self.say(Text(f"The {self.WORK_NAME} failed; the grid is unchanged.",
-                          style="bold #ff6b6b"))
+            self.say(Content.styled(f"The {self.WORK_NAME} failed; the grid is unchanged.",
+                                    style=f"bold {BAD}"))
 
     def no_roster(self, status: str) -> None:
         why = ("No roster keeps every hard rule: the rules, cover, leave and locks "
@@ -262,10 +270,10 @@ class SearchScreen(ModalScreen[None]):
                "No roster found in the time given (not proven impossible either); "
                "try a longer time limit.")
         self.summary = f"{why} The grid is unchanged."
-        self.say(Text(self.summary, style="bold #ff6b6b"))
-        self.query_one("#progress", Static).update(Text.assemble(  # not "searching…"
-            ("elapsed ", "#8d99a6"), (f"{time.monotonic() - self.started:6.1f} s", "bold"),
-            ("   no roster", "bold #ff6b6b")))
+        self.say(Content.styled(self.summary, style=f"bold {BAD}"))
+        self.query_one("#progress", Static).update(Content.assemble(  # not "searching…"
+            ("elapsed ", MUTED), (f"{time.monotonic() - self.started:6.1f} s", "bold"),
+            ("   no roster", f"bold {BAD}")))
 
     def on_unmount(self) -> None:
         self.cancel.set()  # a search still running stops with the screen
@@ -313,7 +321,7 @@ class SolveScreen(SearchScreen):
             self.notify("the solve is running: Esc stops it first", timeout=3)
             return
         self.dismiss()
-        self.app.open_explanation()  # type: ignore[attr-defined]
+        self.app.post_message(ExplainRequested())
 
     def search(self, session: Session, settings: SolveSettings):
         from rostertui.core.solver import SolveOptions, solve
@@ -341,6 +349,6 @@ class SolveScreen(SearchScreen):
             f"{outcome.seconds:.1f} s. Bounds: {bound_sources(outcome)}. "
             f"Found by: {improvement_story(outcome)}. "
             "The new roster is in the grid, not saved yet.")
-        self.say(Text(self.summary, style="bold"))
+        self.say(Content.styled(self.summary, style="bold"))
         self.post_message(RosterSolved(outcome))
         self.query_one("#close", Button).focus()

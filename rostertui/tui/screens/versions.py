@@ -11,11 +11,11 @@ from __future__ import annotations
 
 from zoneinfo import ZoneInfo
 
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.screen import ModalScreen
 from textual.widgets import Button, DataTable, Input, Label, Static
 
@@ -23,6 +23,9 @@ from rostertui.core.edit.session import Session
 from rostertui.core.errors import InputError
 from rostertui.core.io.published import Published, list_published
 from rostertui.core.repair.diff import roster_diff
+from rostertui.tui.host import host
+from rostertui.tui.look import BAD, MUTED
+from rostertui.tui.messages import SessionChanged
 from rostertui.tui.screens.dialogs import ErrorDialog, notify_written
 
 
@@ -81,7 +84,7 @@ class VersionsScreen(ModalScreen[int | None]):
 
     @property
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     def compose(self) -> ComposeResult:
         with Vertical(id="versions-panel"):
@@ -105,7 +108,7 @@ class VersionsScreen(ModalScreen[int | None]):
             self.versions = list_published(folder)
         except InputError as exc:
             self.versions = []
-            self.query_one("#about", Static).update(Text(str(exc), style="bold #ff6b6b"))
+            self.query_one("#about", Static).update(Content.styled(str(exc), style=f"bold {BAD}"))
             return
         table = self.query_one(DataTable)
         table.clear(columns=True)
@@ -124,7 +127,7 @@ class VersionsScreen(ModalScreen[int | None]):
                      "cells of the grid as shown that differ from that version.")
         else:
             about = "Nothing published yet: p publishes the roster as shown in the grid."
-        self.query_one("#about", Static).update(Text(about, style="#aab4be"))
+        self.query_one("#about", Static).update(Content.styled(about, style=MUTED))
 
     # -- publishing ---------------------------------------------------------------------------
     def action_publish(self) -> None:
@@ -141,7 +144,7 @@ class VersionsScreen(ModalScreen[int | None]):
         except OSError as exc:
             self.app.push_screen(ErrorDialog("Not published", f"{type(exc).__name__}: {exc}"))
             return
-        self.app.revised()  # type: ignore[attr-defined]
+        self.app.post_message(SessionChanged())
         notify_written(self, f"published version {done.version}: published/{done.path.name}",
                        session.notices)
         self.reload()

@@ -15,6 +15,8 @@ from textual.widgets import DataTable, Footer, Label, Select, Static
 from rostertui.core.check import Violation
 from rostertui.core.edit.session import Session
 from rostertui.core.words import day as day_text
+from rostertui.tui.host import host
+from rostertui.tui.look import MUTED, theme_colour
 from rostertui.tui.messages import GotoCell
 from rostertui.tui.screens.panel import PanelScreen
 from rostertui.tui.widgets.status import HARD_MARK, SOFT_MARK, SummaryBar, violation_line
@@ -56,7 +58,7 @@ class ViolationsScreen(PanelScreen):
 
     @property
     def session(self) -> Session:
-        return self.app.session  # type: ignore[attr-defined]
+        return host(self.app).session
 
     def compose(self) -> ComposeResult:
         yield SummaryBar(id="summary")
@@ -79,6 +81,7 @@ class ViolationsScreen(PanelScreen):
         table.add_column("rule", key="rule")
         table.add_column("source", key="source")
         self.follow_revisions()
+        self.watch(self.app, "theme", self._revised, init=False)  # the marks' colours
         self.reload()
         table.focus()
 
@@ -112,14 +115,14 @@ class ViolationsScreen(PanelScreen):
         table = self.query_one(DataTable)
         table.clear()
         names = session.ws.person_by_id
+        hard_mark = Text(HARD_MARK, style=f"bold {theme_colour(self.app, 'text-error')}")
+        soft_mark = Text(SOFT_MARK, style=theme_colour(self.app, "text-warning"))
         for i, v in enumerate(found):
             who = names[v.person].name if v.person in names else (
                 f"cover {v.shift}" + (f"·{v.skill}" if v.skill else "") if v.kind == "cover"
                 else "everyone")
-            mark = Text(HARD_MARK, style="bold #ff5f5f") if v.hard else Text(SOFT_MARK,
-                                                                              style="#e0a030")
             table.add_row(
-                mark, dates_text(v), who, v.message,
+                hard_mark if v.hard else soft_mark, dates_text(v), who, v.message,
                 "hard" if v.hard else str(v.penalty), v.rule, v.source or "", key=str(i),
             )
         total = len(session.check.violations)
@@ -137,8 +140,8 @@ class ViolationsScreen(PanelScreen):
         v = self.shown[index]
         who = self.session.ws.person_by_id[v.person].name if v.person else ""
         head = violation_line(v, f"{who}: " if who else "")
-        head.append(f"\n{dates_text(v)}, {v.units} unit{'s' if v.units != 1 else ''}"
-                    f", kind {v.kind}", style="#8d99a6")
+        head = head.append_text(f"\n{dates_text(v)}, {v.units} unit{'s' if v.units != 1 else ''}"
+                                f", kind {v.kind}", MUTED)
         detail.update(head)
 
     # -- events and actions -------------------------------------------------------------------

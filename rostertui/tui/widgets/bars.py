@@ -4,10 +4,16 @@
 also shades the contract band [min, max] behind the bar and draws the target
 as `│`; the fill is green inside the band and red outside it. `range_bar` draws a
 group's spread: `├──●──┤` from min to max with the mean as `●`.
+
+The bars are Rich text for DataTable cells, which Textual does not restyle: the
+colours come in a `BarColours`, which the fairness panel takes from the theme
+(look.theme_colour) and builds again when the theme changes; the default is the
+terminal's own named colours.
 """
 
 from __future__ import annotations
 
+from dataclasses import dataclass
 from fractions import Fraction
 
 from rich.text import Text
@@ -15,8 +21,19 @@ from rich.text import Text
 EIGHTHS = " ▏▎▍▌▋▊▉█"
 Number = int | float | Fraction
 
-OK, LOW, HIGH, PLAIN = "#8cc866", "#e0a030", "#ff6b6b", "#b08cf2"
-BAND_BG, TRACK = "#263326", "#2a3038"
+
+
+@dataclass(frozen=True)
+class BarColours:
+    ok: str = "green"  # hours inside the contract band
+    high: str = "red"  # hours outside it
+    plain: str = "magenta"  # a bar with no band
+    band: str = "grey19"  # the band's background
+    track: str = "grey11"  # the rest of the bar's background
+    mark: str = "white"  # the target `│`, the mean `●`
+
+
+PLAIN_COLOURS = BarColours()
 
 
 def _fill(value: Number, scale: Number, width: int) -> list[str]:
@@ -31,10 +48,11 @@ def _fill(value: Number, scale: Number, width: int) -> list[str]:
     return (cells + [" "] * width)[:width]
 
 
-def bar(value: Number, scale: Number, width: int, colour: str = PLAIN) -> Text:
+def bar(value: Number, scale: Number, width: int, colour: str | None = None,
+        colours: BarColours = PLAIN_COLOURS) -> Text:
     text = Text()
     for ch in _fill(value, scale, width):
-        text.append(ch, style=f"{colour} on {TRACK}")
+        text.append(ch, style=f"{colour or colours.plain} on {colours.track}")
     return text
 
 
@@ -43,10 +61,10 @@ def _cell_of(value: Number, scale: Number, width: int) -> int:
 
 
 def hours_bar(hours: Number, low: Number | None, high: Number | None, target: Number | None,
-              scale: Number, width: int) -> Text:
+              scale: Number, width: int, colours: BarColours = PLAIN_COLOURS) -> Text:
     """Hours against the contract: band [low, high] shaded, target `│`, fill coloured."""
     outside = (low is not None and hours < low) or (high is not None and hours > high)
-    colour = HIGH if outside else OK
+    colour = colours.high if outside else colours.ok
     if low is None and high is None:
         band = range(0)
     else:
@@ -55,16 +73,16 @@ def hours_bar(hours: Number, low: Number | None, high: Number | None, target: Nu
     mark = _cell_of(target, scale, width) if target is not None else None
     text = Text()
     for i, ch in enumerate(_fill(hours, scale, width)):
-        bg = BAND_BG if i in band else TRACK
+        bg = colours.band if i in band else colours.track
         if i == mark and ch == " ":
-            text.append("│", style=f"bold #f0f0f0 on {bg}")
+            text.append("│", style=f"bold {colours.mark} on {bg}")
         else:
             text.append(ch, style=f"{colour} on {bg}")
     return text
 
 
 def range_bar(low: Number | None, mean: Number | None, high: Number | None, scale: Number,
-              width: int) -> Text:
+              width: int, colours: BarColours = PLAIN_COLOURS) -> Text:
     """A group's spread from min to max, with the mean marked."""
     text = Text()
     if low is None or high is None or mean is None or width < 3:
@@ -84,5 +102,6 @@ def range_bar(low: Number | None, mean: Number | None, high: Number | None, scal
             ch = "─"
         else:
             ch = " "
-        text.append(ch, style=f"{'#f0f0f0' if ch == '●' else PLAIN} on {TRACK}")
+        fg = colours.mark if ch == "●" else colours.plain
+        text.append(ch, style=f"{fg} on {colours.track}")
     return text

@@ -20,46 +20,15 @@ from rostertui.core.edit.session import Session
 from rostertui.core.edit.view import GridView
 from rostertui.core.models.common import OFF
 from rostertui.tui.widgets.grid_paint import HEADER, STYLE_NAMES, Layout, Painter, Row
-from rostertui.tui.widgets.palette import shift_colours
+from rostertui.tui.widgets.palette import TONES, shift_colours
 
 
 class RosterGrid(ScrollView, can_focus=True):
-    COMPONENT_CLASSES = {f"grid--{name}" for name in STYLE_NAMES}
+    COMPONENT_CLASSES = {f"grid--{name}" for name in (*STYLE_NAMES, *TONES)}
 
     DEFAULT_CSS = """
-    RosterGrid { background: #14181d; color: #d8dee4; scrollbar-size: 1 1; }
-    RosterGrid > .grid--header { color: #aab4be; text-style: bold; }
-    RosterGrid > .grid--header-weekend { background: #223140; color: #9fc3e0; text-style: bold; }
-    RosterGrid > .grid--header-holiday { background: #3d2c1c; color: #f0b37e; text-style: bold; }
-    RosterGrid > .grid--header-cursor { background: #e8e2d0; color: #141414; text-style: bold; }
-    RosterGrid > .grid--name-cursor { background: #3a4654; text-style: bold; }
-    RosterGrid > .grid--skills { color: #7d8894; }
-    RosterGrid > .grid--flag-hard { color: #ff5f5f; text-style: bold; }
-    RosterGrid > .grid--flag-soft { color: #e0a030; }
-    RosterGrid > .grid--off { color: #56606a; }
-    RosterGrid > .grid--leave { background: #33284a; }
-    RosterGrid > .grid--leave-mark { color: #b9a3e3; }
-    RosterGrid > .grid--weekend { background: #1c2631; }
-    RosterGrid > .grid--holiday { background: #2e241a; }
-    RosterGrid > .grid--hard { background: #7a1f2b; }
-    RosterGrid > .grid--soft { background: #5a4514; }
-    RosterGrid > .grid--cursor { background: #e8e2d0; color: #141414; }
-    RosterGrid > .grid--cursor-hard { color: #b0142a; }
-    RosterGrid > .grid--cursor-soft { color: #8a5a00; }
-    RosterGrid > .grid--req-ok { color: #7fd98a; text-style: bold; }
-    RosterGrid > .grid--req-denied { color: #ff7b5c; text-style: bold; }
-    RosterGrid > .grid--lock { color: #7ec8ff; text-style: bold; }
-    RosterGrid > .grid--sep { color: #4a5560; }
-    RosterGrid > .grid--cover-label { color: #9aa7b3; text-style: italic; }
-    RosterGrid > .grid--cover-ok { color: #6fae78; }
-    RosterGrid > .grid--cover-short { background: #7a1f2b; color: #ffffff; text-style: bold; }
-    RosterGrid > .grid--cover-under { background: #5a4514; color: #ffe6a8; }
-    RosterGrid > .grid--stat-bad { color: #ff6b6b; text-style: bold; }
-    RosterGrid > .grid--stat-warn { color: #e0a030; }
-    RosterGrid > .grid--stat-ok { color: #9fd39f; }
-    RosterGrid > .grid--changed { background: #12545e; text-style: underline; }
-    RosterGrid > .grid--mark { background: #3d6fb5; text-style: bold; }
-    """
+    RosterGrid { scrollbar-size: 1 1; }
+    """  # its colours, from the theme: grid.tcss (the app's stylesheet)
 
     BINDINGS = [
         Binding("up", "move(0, -1)", "Up", show=False),
@@ -155,7 +124,9 @@ class RosterGrid(ScrollView, can_focus=True):
         if self._painter is None:
             styles = {name: self.get_component_rich_style(f"grid--{name}", partial=True)
                       for name in STYLE_NAMES}
-            self._painter = Painter(self.session, self.view, self.grid_layout, styles, self.colours,
+            colours = {code: self.get_component_rich_style(f"grid--{tone}", partial=True)
+                       for code, tone in self.colours.items()}
+            self._painter = Painter(self.session, self.view, self.grid_layout, styles, colours,
                                     self.changed, self.mark)
         return self._painter
 

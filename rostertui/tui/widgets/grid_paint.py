@@ -90,14 +90,15 @@ class Painter:
     """Paints the lines of one view of the session with the widget's styles."""
 
     def __init__(self, session: Session, view: GridView, layout: Layout,
-                 styles: dict[str, Style], colours: dict[str, str],
+                 styles: dict[str, Style], colours: dict[str, Style],
                  changed: dict[tuple[str, int], str] | None = None,
                  mark: tuple[str, int] | None = None):
-        """`changed`: in diff mode, the cells that differ from the version compared
-        against (with its code); `mark`: the cell marked for a swap."""
+        """`styles`: the widget's component styles by name (STYLE_NAMES); `colours`: each
+        shift code's style; `changed`: in diff mode, the cells that differ from the
+        version compared against (with its code); `mark`: the cell marked for a swap."""
         self.session, self.view, self.layout = session, view, layout
         self.s = styles
-        self.colours = {code: Style(color=c, bold=True) for code, c in colours.items()}
+        self.colours = colours
         self.changed = changed or {}
         self.mark = mark
 

@@ -10,11 +10,11 @@ from collections.abc import Callable
 from dataclasses import dataclass
 
 from pydantic import BaseModel
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Grid, Horizontal, Vertical
+from textual.content import Content
 from textual.widgets import Button, DataTable, Input, Label, Static
 
 from rostertui.core.edit.files import apply
@@ -22,6 +22,7 @@ from rostertui.core.edit.forms import build_item, field_text, key_of
 from rostertui.core.edit.session import Session
 from rostertui.core.errors import InputError
 from rostertui.core.models.workspace import Workspace
+from rostertui.tui.look import BAD, GOOD, UNSURE
 from rostertui.tui.messages import WorkspaceEdited
 
 
@@ -104,7 +105,7 @@ class ListEditor(Vertical):
             field.disabled = item is not None and name == self.spec.key
         title = f"Changing {self.spec.label(item)}" if item is not None else \
             f"New {self.spec.items}"
-        self.query_one(".form-title", Static).update(Text(title, style="bold #f4b942"))
+        self.query_one(".form-title", Static).update(Content.styled(title, style=f"bold {UNSURE}"))
 
     def action_new(self, focus: bool = True) -> None:
         self.fill(None)
@@ -169,12 +170,12 @@ class ListEditor(Vertical):
         try:
             new = apply(session, [model])
         except InputError as exc:
-            problems.update(Text("Not saved:\n" + "\n".join(f"  {p}" for p in exc.problems),
-                                 style="#ff6b6b"))
+            problems.update(Content.styled(
+                "Not saved:\n" + "\n".join(f"  {p}" for p in exc.problems), style=BAD))
             return False
         except OSError as exc:
-            problems.update(Text(f"Not saved: {exc}", style="#ff6b6b"))
+            problems.update(Content.styled(f"Not saved: {exc}", style=BAD))
             return False
-        problems.update(Text(f"{done}; {self._file_name()} written", style="#8fd18f"))
+        problems.update(Content.styled(f"{done}; {self._file_name()} written", style=GOOD))
         self.post_message(WorkspaceEdited(new, done))
         return True

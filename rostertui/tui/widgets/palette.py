@@ -6,6 +6,9 @@ Each family has several tones, handed out in shifts.toml order, so two early
 shifts never share a colour. The code is
 drawn in its colour on the grid's background; backgrounds are kept for state
 (weekend, leave, violation, cursor), so the two never fight.
+
+A tone is a name (`early-1`): the grid's component class `grid--early-1`, whose
+colour the stylesheet (grid.tcss) takes from the theme.
 """
 
 from __future__ import annotations
@@ -13,10 +16,11 @@ from __future__ import annotations
 from rostertui.core.models.common import clock_minutes
 from rostertui.core.models.shifts import Shift
 
-MORNING = ("#f4b942", "#ec8f4e", "#e6d36a", "#f29e9e")
-DAYTIME = ("#8cc866", "#5fbf94", "#b5d15a")
-EVENING = ("#45b5c9", "#6a94e0", "#4fd1c0")
-NIGHT = ("#b08cf2", "#de7fd6", "#8f7ff0")
+MORNING = ("early-1", "early-2", "early-3", "early-4")
+DAYTIME = ("day-1", "day-2", "day-3")
+EVENING = ("evening-1", "evening-2", "evening-3")
+NIGHT = ("night-1", "night-2", "night-3")
+TONES = (*MORNING, *DAYTIME, *EVENING, *NIGHT)
 
 
 def family(shift: Shift) -> tuple[str, ...]:
@@ -31,7 +35,7 @@ def family(shift: Shift) -> tuple[str, ...]:
 
 
 def shift_colours(shifts: list[Shift]) -> dict[str, str]:
-    """A colour per shift code: its family's next unused tone."""
+    """A tone per shift code: its family's next unused one."""
     used: dict[tuple[str, ...], int] = {}
     colours: dict[str, str] = {}
     for s in shifts:

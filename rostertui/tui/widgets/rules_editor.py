@@ -11,11 +11,11 @@ from pathlib import Path
 from typing import Any
 
 import tomli_w
-from rich.text import Text
 from textual import on
 from textual.app import ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
+from textual.content import Content
 from textual.widgets import Button, DataTable, Static, TextArea
 
 from rostertui.core.edit.files import apply
@@ -25,6 +25,7 @@ from rostertui.core.io.save import as_toml_data
 from rostertui.core.io.toml_merge import merge_text, same_data
 from rostertui.core.models.rules import RULE_KINDS
 from rostertui.core.models.workspace import EffectiveRule
+from rostertui.tui.look import BAD, GOOD, UNSURE
 from rostertui.tui.messages import WorkspaceEdited
 
 TEMPLATE = 'id = "max-nights-in-row"\nkind = "max-consecutive-shift"\nshift = "@night"\n' \
@@ -117,7 +118,7 @@ class RulesEditor(Vertical):
     def _show(self, text: str, title: str, replaces: str | None) -> None:
         self.replaces = replaces
         self.query_one(TextArea).load_text(text)
-        self.query_one(".form-title", Static).update(Text(title, style="bold #f4b942"))
+        self.query_one(".form-title", Static).update(Content.styled(title, style=f"bold {UNSURE}"))
 
     def action_new(self, focus: bool = True) -> None:
         self._show(TEMPLATE, "New local rule (unit.toml): edit the TOML, then ctrl+r", None)
@@ -144,7 +145,7 @@ class RulesEditor(Vertical):
         try:
             rule = tomllib.loads(self.query_one(TextArea).text)
         except tomllib.TOMLDecodeError as exc:
-            problems.update(Text(f"Not saved: not valid TOML: {exc}", style="#ff6b6b"))
+            problems.update(Content.styled(f"Not saved: not valid TOML: {exc}", style=BAD))
             return
         replaces = self.replaces if self.replaces is not None else rule.get("id")
         if self._apply(rule, replaces, f"saved rule {rule.get('id')}"):
@@ -158,9 +159,9 @@ class RulesEditor(Vertical):
         eff = next((e for e in rules if e.id == rid), None)
         problems = self.query_one(".problems", Static)
         if eff is None or eff.origin != "unit.toml":
-            problems.update(Text("Only local rules (origin unit.toml) can be removed here; a "
-                                 "preset rule goes with its include in unit.toml.",
-                                 style="#f4b942"))
+            problems.update(Content.styled(
+                "Only local rules (origin unit.toml) can be removed here; a preset rule goes "
+                "with its include in unit.toml.", style=UNSURE))
             return
         if self._apply(None, rid, f"removed rule {rid}"):
             self.action_new(focus=False)
@@ -172,12 +173,12 @@ class RulesEditor(Vertical):
         try:
             new = apply(session, [], {"unit.toml": unit_text(session.ws.path, rule, replaces)})
         except InputError as exc:
-            problems.update(Text("Not saved:\n" + "\n".join(f"  {p}" for p in exc.problems),
-                                 style="#ff6b6b"))
+            problems.update(Content.styled(
+                "Not saved:\n" + "\n".join(f"  {p}" for p in exc.problems), style=BAD))
             return False
         except (OSError, tomllib.TOMLDecodeError) as exc:
-            problems.update(Text(f"Not saved: {exc}", style="#ff6b6b"))
+            problems.update(Content.styled(f"Not saved: {exc}", style=BAD))
             return False
-        problems.update(Text(f"{done}; unit.toml written", style="#8fd18f"))
+        problems.update(Content.styled(f"{done}; unit.toml written", style=GOOD))
         self.post_message(WorkspaceEdited(new, done))
         return True

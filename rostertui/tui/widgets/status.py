@@ -2,24 +2,25 @@
 
 from __future__ import annotations
 
-from rich.text import Text
+from textual.content import Content
 from textual.widgets import Static
 
 from rostertui.core.check import Violation
 from rostertui.core.edit.session import Session
 from rostertui.core.edit.view import GridView, cell_text, cover_text, person_summary
 from rostertui.core.words import day as day_text
+from rostertui.tui.look import BAD, GOOD, MUTED, UNSURE
 
 HARD_MARK, SOFT_MARK = "✖", "▲"
 
 
-def violation_line(v: Violation, who: str = "") -> Text:
-    mark = Text(HARD_MARK if v.hard else SOFT_MARK,
-                style="bold #ff5f5f" if v.hard else "bold #e0a030")
+def violation_line(v: Violation, who: str = "") -> Content:
+    mark = Content.styled(HARD_MARK if v.hard else SOFT_MARK,
+                          f"bold {BAD}" if v.hard else f"bold {UNSURE}")
     cost = "hard" if v.hard else f"penalty {v.penalty}"
-    line = Text.assemble(mark, " ", (v.rule, "bold"), f" ({cost}) ", who, v.message)
+    line = Content.assemble(mark, " ", (v.rule, "bold"), f" ({cost}) ", who, v.message)
     if v.source:
-        line.append(f" — {v.source}", style="italic #8d99a6")
+        line = line.append_text(f" — {v.source}", f"italic {MUTED}")
     return line
 
 
@@ -28,7 +29,7 @@ class SummaryBar(Static):
 
     DEFAULT_CSS = """
     SummaryBar {
-        height: 1; background: #1f2a36; color: #d8dee4; padding: 0 1;
+        height: 1; background: $panel; color: $foreground; padding: 0 1;
         text-wrap: nowrap; text-overflow: ellipsis;
     }
     """
@@ -37,21 +38,20 @@ class SummaryBar(Static):
         """Totals first (they matter at any width), then the unit and period."""
         unit = session.ws.unit
         check = session.check
-        text = Text()
+        parts: list[str | tuple[str, str]] = []
         if check.hard_violations:
-            text.append(f"{HARD_MARK} {check.hard_violations} hard", style="bold #ff6b6b")
+            parts.append((f"{HARD_MARK} {check.hard_violations} hard", f"bold {BAD}"))
         else:
-            text.append("✓ no hard violation", style="bold #8fd18f")
+            parts.append(("✓ no hard violation", f"bold {GOOD}"))
         soft = sum(1 for v in check.violations if not v.hard)
-        text.append(f" · {SOFT_MARK} {soft} soft, penalty {check.penalty}")
+        parts.append(f" · {SOFT_MARK} {soft} soft, penalty {check.penalty}")
         if session.dirty:
-            text.append(" · ● unsaved", style="bold #f4b942")
+            parts.append((" · ● unsaved", f"bold {UNSURE}"))
         elif not session.had_file:
-            text.append(" · no roster.toml yet", style="#8d99a6")
-        text.append(f" │ {mode} │ ", style="#8d99a6")
-        text.append(unit.name, style="bold")
-        text.append(f" {day_text(unit.start)}-{day_text(unit.end)} {unit.end.year}")
-        self.update(text, layout=False)
+            parts.append((" · no roster.toml yet", MUTED))
+        parts += [(f" │ {mode} │ ", MUTED), (unit.name, "bold"),
+                  f" {day_text(unit.start)}-{day_text(unit.end)} {unit.end.year}"]
+        self.update(Content.assemble(*parts), layout=False)
 
 
 class StatusLine(Static):
@@ -62,39 +62,39 @@ class StatusLine(Static):
     """
 
     def show(self, session: Session, view: GridView, person: str | None, cover_row: int | None,
-             day: int, typed: str = "", note: str = "", extra: Text | None = None) -> None:
+             day: int, typed: str = "", note: str = "", extra: Content | None = None) -> None:
         """`extra`: a line under the cell's (diff mode: the cell as published)."""
-        lines: list[Text] = []
+        lines: list[Content] = []
         if person is not None:
-            lines.append(Text(cell_text(session, view, person, day), style="bold"))
+            lines.append(Content.styled(cell_text(session, view, person, day), "bold"))
         elif cover_row is not None:
-            lines.append(Text(cover_text(view, cover_row, day), style="bold"))
+            lines.append(Content.styled(cover_text(view, cover_row, day), "bold"))
         if extra is not None:
             lines.append(extra)
         if typed:
             codes = " ".join(session.codes)
-            lines.append(Text(f"typing {typed}…  Enter sets it, Esc drops it  (shifts: {codes}"
-                              ", - off)", style="bold #f4b942"))
+            lines.append(Content.styled(f"typing {typed}…  Enter sets it, Esc drops it  (shifts: "
+                                        f"{codes}, - off)", f"bold {UNSURE}"))
         elif note:
-            lines.append(Text(note, style="#f4b942"))
+            lines.append(Content.styled(note, UNSURE))
         elif person is not None:
             name = session.ws.person_by_id[person].name
-            lines.append(Text(f"{name}: {person_summary(session, person)}", style="#aab4be"))
+            lines.append(Content.styled(f"{name}: {person_summary(session, person)}", MUTED))
         if person is None and cover_row is None:
-            self.update(Text("Nobody in staff.toml yet: add people there, then reopen.",
-                             style="#f4b942"), layout=False)
+            self.update(Content.styled("Nobody in staff.toml yet: add people there, then "
+                                       "reopen.", UNSURE), layout=False)
             return
         found = self._violations(view, person, cover_row, day)
         room = max(1, (self.size.height or 4) - len(lines))
         if not found:
-            lines.append(Text("✓ no violation here", style="#8fd18f"))
+            lines.append(Content.styled("✓ no violation here", GOOD))
         for i, (v, who) in enumerate(found):
             if i == room - 1 and len(found) > room:
-                lines.append(Text(f"… and {len(found) - i} more here (F3 lists every violation)",
-                                  style="#8d99a6"))
+                lines.append(Content.styled(f"… and {len(found) - i} more here (F3 lists every "
+                                            "violation)", MUTED))
                 break
             lines.append(violation_line(v, who))
-        self.update(Text("\n").join(lines), layout=False)  # fixed height: no layout pass
+        self.update(Content("\n").join(lines), layout=False)  # fixed height: no layout pass
 
     @staticmethod
     def _violations(view: GridView, person: str | None, cover_row: int | None,

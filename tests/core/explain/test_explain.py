@@ -2,6 +2,7 @@
 
 from __future__ import annotations
 
+import threading
 from datetime import date
 from pathlib import Path
 
@@ -161,3 +162,31 @@ def test_a_days_minimums_together_beyond_the_skilled_people_free(tmp_path: Path)
     found = find_conflict(ws, 20)
     assert sorted(it.kind for it in found.items) == ["cover", "cover", "leave", "leave"]
     assert minimal(ws, found.items)
+
+
+def test_a_cancel_before_the_search_stops_it_unsettled(tmp_path: Path) -> None:
+    ws = ws_of(tmp_path, rules=REST, cover='[[cover]]\nshift = "E"\nmin = 1\n')
+    cancel = threading.Event()
+    cancel.set()
+    result = explain(ws, 20, cancel=cancel)
+    assert result.stopped and not result.decided and not result.feasible
+
+
+def test_a_cancel_while_pricing_keeps_the_verdict_and_says_stopped(tmp_path: Path) -> None:
+    """The pricing step is cut short: the verdict stands, the prices are partial."""
+    requests = ('[[request]]\nperson = "a"\ndate = 2027-03-01\nwant = "off"\nweight = 3\n'
+                '[[request]]\nperson = "b"\ndate = 2027-03-01\nwant = "off"\nweight = 5\n')
+    shifts = '[[shift]]\ncode = "E"\nname = "Early"\nstart = "07:00"\nend = "15:00"\n'
+    ws = load_workspace(write_ws(tmp_path / "ws", rows={"a": "E -", "b": "- E"},
+                                 shifts=shifts, requests=requests,
+                                 cover='[[cover]]\nshift = "E"\nmin = 1\nmax = 1\n'))
+    cancel = threading.Event()
+
+    def progress(text: str) -> None:
+        if text.startswith("pricing"):
+            cancel.set()
+
+    result = explain(ws, 20, on_progress=progress, cancel=cancel)
+    assert result.feasible and result.decided and result.stopped
+    assert all(c.status == "granted" for c in result.requests)  # none wrongly "impossible"
+    assert not explain(ws, 20).stopped
