@@ -10,6 +10,7 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from datetime import date
+from typing import TYPE_CHECKING
 
 from rich.text import Text
 from textual import on
@@ -22,6 +23,9 @@ from rostertui.core.errors import EditError
 from rostertui.tui.repairs import parse_day
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
 from rostertui.tui.state import Session
+
+if TYPE_CHECKING:
+    from rostertui.core.repair.repair import RepairOutcome
 
 
 def shown(code: str) -> str:
@@ -48,7 +52,7 @@ class RepairScreen(SearchScreen):
     def __init__(self, settings: SolveSettings, start_from: date) -> None:
         super().__init__(settings)
         self.start_from = start_from
-        self.result = None  # the RepairOutcome, once done
+        self.result: RepairOutcome | None = None  # once done
         self.kept = False
 
     def heading(self) -> str:
