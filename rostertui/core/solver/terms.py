@@ -35,7 +35,7 @@ class Build:
     def hard(self, constraint: cp_model.Constraint | None) -> None:
         """A hard rule's constraint: switched by `enforce` when explaining, else as is."""
         if constraint is not None and self.enforce is not None and self.enforce is not True:
-            constraint.only_enforce_if(self.enforce)  # type: ignore[arg-type]
+            constraint.only_enforce_if(self.enforce)
 
     def add(self, rule: str, kind: str, person: str | None, dates: tuple[date, ...],
             weight: int, units: cp_model.IntVar | int | Lit) -> None:
@@ -46,5 +46,5 @@ class Build:
             return
         self.terms.append(Term(rule, kind, person, dates, weight, units))  # type: ignore[arg-type]
 
-    def objective(self) -> cp_model.LinearExprT:
-        return sum(t.weight * t.units for t in self.terms)  # type: ignore[return-value]
+    def objective(self) -> cp_model.LinearExpr | int:
+        return sum(t.weight * t.units for t in self.terms)
