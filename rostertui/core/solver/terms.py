@@ -20,7 +20,7 @@ class Term:
     person: str | None
     dates: tuple[date, ...]
     weight: int
-    units: cp_model.IntVar | int  # a 0/1 literal or an integer variable, exact
+    units: cp_model.BoolVarT | cp_model.IntVar | int  # a 0/1 literal or an integer variable, exact
 
 
 @dataclass
@@ -44,7 +44,7 @@ class Build:
             units = 1
         if weight == 0 or units is False or (isinstance(units, int) and units == 0):
             return
-        self.terms.append(Term(rule, kind, person, dates, weight, units))  # type: ignore[arg-type]
+        self.terms.append(Term(rule, kind, person, dates, weight, units))
 
     def objective(self) -> cp_model.LinearExpr | int:
         return sum(t.weight * t.units for t in self.terms)
