@@ -5,7 +5,7 @@ from __future__ import annotations
 from rich.table import Table
 from rich.text import Text
 from textual.app import ComposeResult
-from textual.binding import Binding
+from textual.binding import Binding, BindingType
 from textual.containers import Horizontal, VerticalScroll
 from textual.screen import ModalScreen
 from textual.widgets import Static
@@ -27,7 +27,7 @@ def keys_text(binding: Binding) -> str:
     return " / ".join(key_name(k.strip()) for k in binding.key.split(","))
 
 
-def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]]]]) -> Table:
+def bindings_table(sections: list[tuple[str, list[BindingType], list[tuple[str, str]]]]) -> Table:
     table = Table(show_header=False, box=None, padding=(0, 2, 0, 0), expand=False)
     table.add_column(style="bold #f4b942", no_wrap=True)
     table.add_column()
