@@ -17,8 +17,9 @@ demo: $(VENV)/.installed
 	$(BIN)/rostertui demo --unit clinic
 
 test: $(VENV)/.installed
-	$(BIN)/ruff check rostertui tests
+	$(BIN)/ruff check rostertui tests bench
+	$(BIN)/mypy rostertui
 	$(BIN)/python -m pytest
 
 clean:
-	rm -rf $(VENV) build dist .pytest_cache .ruff_cache
+	rm -rf $(VENV) build dist .pytest_cache .ruff_cache .mypy_cache

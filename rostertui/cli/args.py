@@ -9,7 +9,9 @@ from rostertui.core.check import Violation
 from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.repair.diff import CellDiff
-from rostertui.core.words import weekday_day as day
+from rostertui.core.words import weekday_day
+
+day = weekday_day  # 'Mon 4 Mar', this module's name for it
 
 
 def iso_date(text: str) -> date:

@@ -82,7 +82,7 @@ def do_stats(
     return EXIT_OK
 
 
-def table(header: Sequence[str], rows: list[Sequence[str]], align: str) -> list[str]:
+def table(header: Sequence[str], rows: Sequence[Sequence[str]], align: str) -> list[str]:
     """Lines of a table: columns padded to their widest cell, "l"eft or "r"ight aligned."""
     widths = [max(len(r[i]) for r in [header, *rows]) for i in range(len(header))]
     out: list[str] = []

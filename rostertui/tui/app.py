@@ -274,6 +274,7 @@ class RosterApp(App[int]):
     @on(RosterSolved)
     def _solved(self, event: RosterSolved) -> None:
         outcome = event.outcome
+        assert outcome.roster is not None  # posted only when the search found a roster
         self.session.replace(outcome.roster, f"solve ({outcome.status})")
         self.revised()
 

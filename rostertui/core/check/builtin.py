@@ -9,6 +9,7 @@ by construction: a roster row has one code per date.
 from __future__ import annotations
 
 from datetime import date
+from typing import Any
 
 from rostertui.core import words as fmt
 from rostertui.core.check.grid import Grid
@@ -20,7 +21,8 @@ from rostertui.core.models.shifts import Cover
 from rostertui.core.models.workspace import Workspace
 
 
-def _hard(kind: str, person: str | None, d: date, units: int, message: str, **extra) -> Violation:
+def _hard(kind: str, person: str | None, d: date, units: int, message: str,
+          **extra: Any) -> Violation:
     return Violation(kind, kind, True, person, (d,), units, 0, message, None, **extra)
 
 

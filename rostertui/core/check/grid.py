@@ -6,6 +6,7 @@ history rows give the days just before the period (oldest first).
 
 from __future__ import annotations
 
+import datetime
 from collections import Counter
 from datetime import date, timedelta
 from fractions import Fraction
@@ -89,10 +90,10 @@ class Grid:
         """Date of a day index (0 = period start; negative = history)."""
         return self.start + timedelta(days=day)
 
-    def index(self, d: date) -> int:
+    def index(self, d: datetime.date) -> int:
         return (d - self.start).days
 
-    def in_period(self, d: date) -> bool:
+    def in_period(self, d: datetime.date) -> bool:
         return 0 <= (d - self.start).days < self.n
 
     # -- leave and hours ---------------------------------------------------------------

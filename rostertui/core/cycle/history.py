@@ -114,7 +114,7 @@ def _rule_for(ws: Workspace, pid: str) -> MaxAverageWeeklyHours | None:
              if isinstance(e.rule, MaxAverageWeeklyHours) and pid in e.people]
     if not found:
         return None
-    return max(found, key=lambda r: (r.weeks, -r.hours))  # type: ignore[union-attr]
+    return max(found, key=lambda r: (r.weeks, -r.hours))
 
 
 def mixed_windows(ws: Workspace) -> list[str]:

@@ -33,6 +33,7 @@ d + 2. Per kind, with day 0 the period start:
 from __future__ import annotations
 
 import math
+from collections.abc import Sequence
 from dataclasses import dataclass
 from datetime import date, timedelta
 
@@ -85,7 +86,7 @@ def rule_need(rule: object, start: date, days: int) -> tuple[int, str] | None:
     return None
 
 
-def weekend_run_before(start: date, weekend: list[str], holidays: list[date]) -> int:
+def weekend_run_before(start: date, weekend: Sequence[str], holidays: list[date]) -> int:
     """Length of the run of weekend days and holidays that ends the day before `start`."""
     wanted = {WEEKDAYS.index(w) for w in weekend}
     known = set(holidays)
@@ -98,7 +99,7 @@ def weekend_run_before(start: date, weekend: list[str], holidays: list[date]) ->
 
 
 def needs(
-    rules: list[EffectiveRule], start: date, days: int, weekend: list[str],
+    rules: list[EffectiveRule], start: date, days: int, weekend: Sequence[str],
     holidays: list[date],
 ) -> list[Need]:
     """What each rule of the effective set needs before a period of `days` from `start`

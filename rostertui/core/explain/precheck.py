@@ -203,6 +203,7 @@ def _minimums(ws: Workspace, av: Availability) -> list[Reason]:
             else:
                 if r.min is None:
                     continue
+                most: Fraction | int
                 most = sum(max((hours[c] for c in codes
                                 if av.why_not(pid, d, c) is None), default=Fraction(0))
                            for d in days)

@@ -8,7 +8,9 @@ from datetime import date
 from rostertui.core.models import rules as R
 from rostertui.core.models.shifts import Cover
 from rostertui.core.models.workspace import Workspace
-from rostertui.core.words import weekday_day as day
+from rostertui.core.words import weekday_day
+
+day = weekday_day  # 'Mon 4 Mar', this module's name for it
 
 
 def span(first: date, last: date) -> str:

@@ -90,7 +90,7 @@ def _person(sheet: Sheet, row: Row, seen: dict[str, int]) -> Person | None:
     return Person(id=pid, name=name, skills=codes["skills"], groups=groups)
 
 
-def _check(sheet: Sheet, row: Row, column: str, adapter: TypeAdapter, value: str) -> bool:
+def _check(sheet: Sheet, row: Row, column: str, adapter: TypeAdapter[str], value: str) -> bool:
     try:
         adapter.validate_python(value)
     except ValidationError as exc:

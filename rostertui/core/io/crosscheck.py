@@ -7,7 +7,7 @@ from collections.abc import Collection
 from dataclasses import dataclass, field
 from datetime import date
 
-from rostertui.core.io.errors_map import key_path_text
+from rostertui.core.io.errors_map import KeyPath, key_path_text
 from rostertui.core.io.report import Report
 from rostertui.core.models.common import NIGHT_SELECTOR, OFF
 from rostertui.core.models.history import History
@@ -65,7 +65,7 @@ class CrossCheck:
         self.codes = {s.code for s in shifts.shift} | names.codes
         self.skills = {skill for p in staff.person for skill in p.skills} | names.skills
         self.used_skills = _used_skills(shifts)
-        self.unnamed: list[tuple[str, tuple, str]] = []  # codes named while none is defined
+        self.unnamed: list[tuple[str, KeyPath, str]] = []  # codes named while none is defined
 
     def finish(self) -> None:
         """What is said once for the whole workspace, after every file is checked."""
@@ -82,13 +82,13 @@ class CrossCheck:
             )
 
     # -- helpers -----------------------------------------------------------------------
-    def person(self, file: str, path: tuple, pid: str) -> bool:
+    def person(self, file: str, path: KeyPath, pid: str) -> bool:
         if pid in self.people:
             return True
         self.report.error(file, path, f"unknown person {pid!r}{near(pid, self.people)}")
         return False
 
-    def code(self, file: str, path: tuple, code: str, *, off_ok: bool = True) -> None:
+    def code(self, file: str, path: KeyPath, code: str, *, off_ok: bool = True) -> None:
         if code in self.codes or (off_ok and code == OFF):
             return
         if not self.codes:  # no shift at all: said once, by finish(), not per cell
@@ -102,7 +102,7 @@ class CrossCheck:
             + ", ".join(repr(c) for c in expected),
         )
 
-    def in_period(self, file: str, path: tuple, day: date, what: str) -> None:
+    def in_period(self, file: str, path: KeyPath, day: date, what: str) -> None:
         if self.unit is not None and not self.unit.in_period(day):
             self.report.warn(
                 file,
@@ -141,7 +141,7 @@ class CrossCheck:
                 self.in_period(SHIFTS, ("cover", i, "dates", j), day, "cover date")
         self.staff_skills(staff)
 
-    def skill(self, path: tuple, skill: str) -> None:
+    def skill(self, path: KeyPath, skill: str) -> None:
         if skill not in self.skills:
             self.report.error(
                 SHIFTS, path,
@@ -206,7 +206,7 @@ class CrossCheck:
             self.report.error(
                 label, ("start",),
                 f"the roster covers {roster.days} days from {roster.start}, but the unit's "
-                f"period is {self.unit.days} days from {self.unit.start}",
+                f"period is {unit.days} days from {unit.start}",
             )
         for pid, row in roster.rows.items():
             if not self.person(label, ("rows", pid), pid):
@@ -231,6 +231,7 @@ class CrossCheck:
                     )
 
     def unit_dates(self) -> None:
+        assert self.unit is not None  # called once the unit loaded
         for i, day in enumerate(self.unit.holidays):
             self.in_period(UNIT, ("holidays", i), day, "holiday")
 

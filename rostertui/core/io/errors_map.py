@@ -8,6 +8,7 @@ from datetime import date, datetime, time
 from typing import Any
 
 from pydantic import ValidationError
+from pydantic_core import ErrorDetails
 
 from rostertui.core.errors import Problem
 from rostertui.core.io.toml_lines import line_of
@@ -107,7 +108,7 @@ def _type_sentence(kind: str, value: Any) -> str:
     return f"expected {_EXPECTED[kind]}; found {_found(value)}{_hint(kind, value)}"
 
 
-def _sentence(err: dict[str, Any], known_keys: Sequence[str]) -> str:
+def _sentence(err: ErrorDetails, known_keys: Sequence[str]) -> str:
     kind = err["type"]
     loc = err["loc"]
     last = loc[-1] if loc else ""

@@ -208,7 +208,8 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
         codes=raw_names(raw.get("shifts.toml"), "shift", "code"),
         skills=raw_names(raw.get("staff.toml"), "person", "skills"),
     )
-    if roster_file is not None and Path(roster_file).suffix.lower() == ".csv" and unit:
+    if (roster_file is not None and Path(roster_file).suffix.lower() == ".csv"
+            and isinstance(unit, Unit)):
         roster_label = Path(roster_file).name
         roster = read_roster_csv(
             Path(roster_file), unit, [p.id for p in staff.person],
@@ -225,8 +226,8 @@ def load_workspace(folder: str | Path, *, roster_file: str | Path | None = None)
         check.history(history)
     if isinstance(roster, Roster):
         check.roster(roster, roster_label)
-    for _origin, label, rules in presets:
-        for i, rule in enumerate(rules):
+    for _origin, label, listed in presets:
+        for i, rule in enumerate(listed):
             check.rule(label, i, rule)
     local_rules = list(unit.rule) if isinstance(unit, Unit) else []
     for i, rule in enumerate(local_rules):

@@ -139,11 +139,11 @@ def as_written(raw: Any, old: Any, new: Any) -> Any:
         out.update({k: v for k, v in raw.items() if k not in old and k not in new})
         return out
     if isinstance(new, list) and isinstance(old, list) and isinstance(raw, list):
-        out = list(new)
+        items = list(new)
         if len(raw) == len(old):
             for i, j in pairs(old, new):
-                out[j] = as_written(raw[i], old[i], new[j])
-        return out
+                items[j] = as_written(raw[i], old[i], new[j])
+        return items
     return new
 
 

@@ -95,7 +95,9 @@ class _Scanner:
         text = self.text
         pos = 1 if text.startswith("\ufeff") else 0
         while True:
-            pos = _SKIP.match(text, pos).end()
+            skipped = _SKIP.match(text, pos)
+            assert skipped is not None  # _WS matches the empty string too
+            pos = skipped.end()
             if pos >= len(text):
                 return
             if text.startswith("[", pos):
@@ -149,11 +151,14 @@ class _Scanner:
         else:
             end = self.inline_table(match.end(), path)
         after = _NEXT.match(self.text, end)
+        assert after is not None  # _THEN matches the empty string too
         return after.end(), after["sep"]
 
     def close(self, pos: int, bracket: str) -> int:
         """Step over blanks and comments to the expected closing bracket."""
-        pos = _SKIP.match(self.text, pos).end()
+        skipped = _SKIP.match(self.text, pos)
+        assert skipped is not None  # _WS matches the empty string too
+        pos = skipped.end()
         if not self.text.startswith(bracket, pos):
             raise _Malformed
         return pos + 1

@@ -12,10 +12,10 @@ so that they stay put when that entry goes. Read the result back before trusting
 from __future__ import annotations
 
 from difflib import SequenceMatcher
-from typing import Any
+from typing import Any, cast
 
 import tomlkit
-from tomlkit.items import AoT, Array, Comment, InlineTable, Item, Table, Whitespace
+from tomlkit.items import AoT, Array, Comment, InlineTable, Table, Whitespace
 
 
 def same_data(a: Any, b: Any) -> bool:
@@ -38,7 +38,7 @@ def pairs(old: list[Any], new: list[Any]) -> list[tuple[int, int]]:
             return [(where[v], j) for j, v in enumerate(ids[1]) if v in where]
     canon = [[repr(sorted(r.items()) if isinstance(r, dict) else r) for r in rows]
              for rows in (old, new)]
-    ops = SequenceMatcher(None, *canon, autojunk=False).get_opcodes()
+    ops = SequenceMatcher(None, canon[0], canon[1], autojunk=False).get_opcodes()
     return [(i + t, j + t) for tag, i, i2, j, j2 in ops if tag in ("equal", "replace")
             for t in range(min(i2 - i, j2 - j))]
 
@@ -58,7 +58,7 @@ def _rows(value: Any) -> bool:
     return isinstance(value, list) and bool(value) and all(isinstance(v, dict) for v in value)
 
 
-def _trailing(table: Any, pop: bool = False) -> list[Item]:
+def _trailing(table: Any, pop: bool = False) -> list[Comment | Whitespace]:
     """The comments and blank lines after a table's last key (they lead to what follows)."""
     body = table.value.body if isinstance(table, Table) else []
     start = len(body)
@@ -70,11 +70,11 @@ def _trailing(table: Any, pop: bool = False) -> list[Item]:
     return block
 
 
-def _noted(block: list[Item]) -> bool:
+def _noted(block: list[Comment | Whitespace]) -> bool:
     return any(isinstance(item, Comment) for item in block)
 
 
-def _lead(table: Table, block: list[Item]) -> None:
+def _lead(table: Table, block: list[Comment | Whitespace]) -> None:
     table.trivia.indent = "".join(item.as_string() for item in block) + table.trivia.indent
 
 
@@ -131,19 +131,19 @@ def _merge_list(old: AoT | Array, new: list[dict[str, Any]]) -> bool:
     if kept != sorted(kept) or [j for _, j in matched] != list(range(len(matched))):
         return False
     for i in reversed([i for i in range(len(old)) if i not in kept]):
-        if aot:
+        if isinstance(old, AoT):
             _delete_table(old, i)
         else:
             del old[i]
     for j, row in enumerate(new):
-        if j >= len(kept) and aot:
+        if j >= len(kept) and isinstance(old, AoT):
             _append_table(old, row)
         elif j >= len(kept):
             old.append(_inline(row, pad=pad))
         elif aot:
             _merge_table(old[j], row)
         elif not same_data(_plain(old[j]), row):
-            old[j] = _inline(row, old[j])
+            old[j] = _inline(row, cast(InlineTable, old[j]))
     return True
 
 
@@ -197,11 +197,11 @@ def _inline(new: dict[str, Any], old: InlineTable | None = None, pad: bool = Tru
 def _text(value: Any, old: Any = None, pad: bool = True) -> str:
     """`value` as inline TOML; keys and values unchanged from `old` keep their text."""
     if old is not None and same_data(_plain(old), value):
-        return old.as_string()
+        return cast(str, old.as_string())
     if isinstance(value, list):
         return "[" + ", ".join(_text(v) for v in value) + "]"
     if not isinstance(value, dict):
-        return tomlkit.item(value).as_string()
+        return cast(str, tomlkit.item(value).as_string())
     body = old.value.body if isinstance(old, InlineTable) else []
     kept = {k.key: (k.as_string().strip(), v) for k, v in body if k is not None}
     order = [k for k in kept if k in value] + [k for k in value if k not in kept]

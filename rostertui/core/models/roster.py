@@ -10,6 +10,7 @@ from pydantic import Field
 from rostertui.core.models.common import Identifier, Strict
 
 Code = Annotated[str, Field(min_length=1, max_length=32)]
+SolveStatus = Literal["optimal", "feasible", "infeasible", "unknown"]
 
 
 class Lock(Strict):
@@ -18,7 +19,7 @@ class Lock(Strict):
 
 
 class SolveRecord(Strict):
-    status: Literal["optimal", "feasible", "infeasible", "unknown"]
+    status: SolveStatus
     objective: int | None = None
     bound: int | None = None
     seconds: float = Field(default=0.0, ge=0)

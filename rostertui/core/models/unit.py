@@ -3,6 +3,7 @@
 from __future__ import annotations
 
 from datetime import date, timedelta
+from typing import cast
 from zoneinfo import ZoneInfo, ZoneInfoNotFoundError
 
 from pydantic import Field, field_validator
@@ -22,7 +23,7 @@ class Unit(Strict):
     timezone: str
     start: date
     days: int = Field(ge=1, le=366)
-    weekend: list[Weekday] = Field(default_factory=lambda: ["sat", "sun"])
+    weekend: list[Weekday] = Field(default_factory=lambda: cast(list[Weekday], ["sat", "sun"]))
     holidays: list[date] = Field(default_factory=list)
     include: list[str] = Field(default_factory=list)
     rule: list[Rule] = Field(default_factory=list)

@@ -14,7 +14,7 @@ from rostertui.core.solver.weekends import WeekendsWorked
 
 
 def metric_of(b: Build, metric: str, p: int, hours: Hours, ww: WeekendsWorked
-              ) -> tuple[cp_model.LinearExprT, int, int]:
+              ) -> tuple[cp_model.LinearExpr | int, int, int]:
     """(expression, lowest, highest) of person p's balance metric; hours are scaled by
     `hours.scale`, every other metric is a count."""
     cells = b.cells

@@ -7,7 +7,7 @@ period come from history as constants; without history a person is off there.
 
 from __future__ import annotations
 
-from collections.abc import Sequence
+from collections.abc import Mapping, Sequence
 from dataclasses import dataclass, field
 from datetime import date, timedelta
 
@@ -65,8 +65,8 @@ class Cells:
         ws = self.ws
         leave: set[tuple[str, int]] = set()
         for lv in ws.requests.leave:
-            for d in lv.dates():
-                i = (d - self.start).days
+            for day in lv.dates():
+                i = (day - self.start).days
                 if 0 <= i < self.n:
                     leave.add((lv.person, i))
         blocked: set[tuple[str, int, str]] = set()
@@ -166,7 +166,7 @@ class Cells:
             return False
         return self.on(p, d, frozenset(self.codes))
 
-    def hint_rows(self, rows: dict[int, Sequence[str]]) -> None:
+    def hint_rows(self, rows: Mapping[int, Sequence[str]]) -> None:
         """Hint the search with a row of codes per person (index): a start that CP-SAT
         completes, or repairs where the rows break a rule."""
         for (p, d, code), var in self.x.items():

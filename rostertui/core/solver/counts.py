@@ -20,8 +20,8 @@ from rostertui.core.solver.logic import absolute, bool_sum, ceil_div, excess, fo
 from rostertui.core.solver.terms import Build
 
 
-def shift_count(b: Build, p: int, codes: frozenset[str] | None) -> tuple[cp_model.LinearExprT,
-                                                                       int, int]:
+def shift_count(b: Build, p: int, codes: frozenset[str] | None) -> tuple[cp_model.LinearExpr | int,
+                                                                        int, int]:
     """(expression, lowest, highest) of the number of such shifts in the period."""
     cells = b.cells
     wanted = frozenset(cells.codes) if codes is None else codes

@@ -6,7 +6,7 @@ Shared by the warm start, the polish after the search and the primal heuristics
 
 from __future__ import annotations
 
-from collections.abc import Collection, Sequence
+from collections.abc import Collection, Mapping, Sequence
 
 from ortools.sat.python import cp_model
 
@@ -50,7 +50,7 @@ def hint_solution(model: cp_model.CpModel, solution: Sequence[int]) -> None:
     hint.values.extend(solution)
 
 
-def values_of(built: Built, rows: dict[int, Sequence[str]]) -> Values:
+def values_of(built: Built, rows: Mapping[int, Sequence[str]]) -> Values:
     """Cell values from a row of codes per person (index); people missing are off."""
     values: Values = {}
     for key in built.cells.x:

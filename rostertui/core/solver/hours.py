@@ -53,7 +53,7 @@ class Hours:
             if scale > MAX_SCALE:
                 raise ValueError("hour values need a finer scale than the solver supports")
         self.scale = scale
-        self._expr: dict[int, tuple[cp_model.LinearExprT, int, int]] = {}
+        self._expr: dict[int, tuple[cp_model.LinearExpr | int, int, int]] = {}
 
     def _credit(self) -> dict[str, Fraction]:
         """Leave credit per person in the period (one credit per leave day, the largest)."""
@@ -76,7 +76,7 @@ class Hours:
         assert scaled.denominator == 1
         return int(scaled)
 
-    def of(self, p: int) -> tuple[cp_model.LinearExprT, int, int]:
+    def of(self, p: int) -> tuple[cp_model.LinearExpr | int, int, int]:
         """(expression, lowest, highest) of person p's scaled hours in the period."""
         found = self._expr.get(p)
         if found is None:

@@ -52,11 +52,11 @@ def add_leave_and_locks(b: Build, items: Items) -> None:
         days = [d for d in days if 0 <= d < cells.n]
         if not days or lv.person not in cells.pindex:
             continue
-        p = cells.pindex[lv.person]
+        who = cells.pindex[lv.person]
         b.enforce = items.switch(HardItem("leave", "leave", lv.person,
                                           tuple(cells.date(d) for d in days), leave=i))
         for d in days:
-            b.hard(forbid(b.model, [cells.works(p, d)]))
+            b.hard(forbid(b.model, [cells.works(who, d)]))
     roster = ws.roster
     for lock in roster.lock if roster is not None else []:
         p = cells.pindex.get(lock.person)

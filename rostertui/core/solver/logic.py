@@ -16,7 +16,7 @@ from collections.abc import Iterable, Sequence
 
 from ortools.sat.python import cp_model
 
-Lit = cp_model.IntVar | bool
+Lit = cp_model.BoolVarT | bool  # a Boolean variable, its negation, or a constant
 Expr = cp_model.LinearExprT
 
 
@@ -26,10 +26,10 @@ def negate(lit: Lit) -> Lit:
     return lit.Not()
 
 
-def _variables(lits: Iterable[Lit], absorbing: bool) -> list[cp_model.IntVar] | None:
+def _variables(lits: Iterable[Lit], absorbing: bool) -> list[cp_model.BoolVarT] | None:
     """The variables among `lits`, without repeats; None if one is the constant `absorbing`
     (False for a conjunction, True for a disjunction). Other constants drop out."""
-    found: list[cp_model.IntVar] = []
+    found: list[cp_model.BoolVarT] = []
     for lit in lits:
         if lit is absorbing:
             return None
@@ -75,18 +75,18 @@ def forbid(model: cp_model.CpModel, lits: Sequence[Lit]) -> cp_model.Constraint 
             clause.append(negate(lit))
     if not clause:
         return model.add_bool_or([])  # a constant breach: the model is infeasible
-    return model.add_bool_or(clause)  # type: ignore[arg-type]
+    return model.add_bool_or(clause)
 
 
-def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.IntVar], int]:
+def bool_sum(lits: Iterable[Lit]) -> tuple[list[cp_model.BoolVarT], int]:
     """Split into variables and a constant count of True."""
-    vars_: list[cp_model.IntVar] = []
+    vars_: list[cp_model.BoolVarT] = []
     const = 0
     for lit in lits:
         if lit is True:
             const += 1
         elif lit is not False:
-            vars_.append(lit)  # type: ignore[arg-type]
+            vars_.append(lit)
     return vars_, const
 
 

@@ -20,9 +20,15 @@ from __future__ import annotations
 
 import math
 import time
+from collections.abc import Callable, Iterable
+from typing import Any
 
 from ortools.linear_solver import pywraplp
+from ortools.sat import cp_model_pb2
 from ortools.sat.python import cp_model
+
+# A literal's (coefficient, LP variable, constant): x or 1 - x.
+Lit = Callable[[int], tuple[float, object | None, float]]
 
 
 class Relaxation:
@@ -39,7 +45,7 @@ class Relaxation:
         status = solver.Solve()
         if status != pywraplp.Solver.OPTIMAL or time.monotonic() - started > time_limit:
             return None
-        value = solver.Objective().Value() * self.scale
+        value: float = solver.Objective().Value() * self.scale
         return math.ceil(value - 1e-6 * max(1.0, abs(value)))
 
 
@@ -52,7 +58,7 @@ def _build(model: cp_model.CpModel) -> tuple[pywraplp.Solver, float]:
     proto = model.proto
     solver = pywraplp.Solver.CreateSolver("GLOP")
     inf = solver.infinity()
-    xs = []
+    xs: list[Any] = []
     domains = [list(v.domain) for v in proto.variables]
     for domain in domains:
         xs.append(solver.NumVar(float(domain[0]), float(domain[-1]), ""))
@@ -107,7 +113,7 @@ def _build(model: cp_model.CpModel) -> tuple[pywraplp.Solver, float]:
 KINDS = ("bool_or", "bool_and", "at_most_one", "exactly_one", "linear")
 
 
-def _kind(ct) -> str | None:  # noqa: ANN001
+def _kind(ct: cp_model_pb2.ConstraintProto) -> str | None:
     for kind in KINDS:
         if getattr(ct, f"has_{kind}")():
             return kind
@@ -118,7 +124,7 @@ def _neg(ref: int) -> int:
     return -ref - 1
 
 
-def _row(solver, refs, lit, lo: float, hi: float) -> None:  # noqa: ANN001
+def _row(solver: pywraplp.Solver, refs: Iterable[int], lit: Lit, lo: float, hi: float) -> None:
     row = solver.Constraint(lo, hi)
     const = 0.0
     for ref in refs:
@@ -128,7 +134,9 @@ def _row(solver, refs, lit, lo: float, hi: float) -> None:  # noqa: ANN001
     row.SetBounds(lo - const, hi - const)
 
 
-def _linear(solver, ct, enforce, xs, lit, bounds, inf) -> None:  # noqa: ANN001
+def _linear(solver: pywraplp.Solver, ct: cp_model_pb2.ConstraintProto, enforce: list[int],
+            xs: list[Any], lit: Lit, bounds: Callable[[int], tuple[int, int]],
+            inf: float) -> None:
     """lb <= expr <= ub, each side relaxed by big * (1 - e) for every enforcement e."""
     lin = ct.linear
     domain = list(lin.domain)

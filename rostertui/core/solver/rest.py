@@ -13,6 +13,8 @@ before it; the window passes when one of them is true.
 
 from __future__ import annotations
 
+from typing import Literal
+
 from ortools.sat.python import cp_model
 
 from rostertui.core.models.rules import MinRest, WeeklyRest
@@ -114,7 +116,7 @@ def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock) -> None:
 
 
 def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
-               clock: ShiftClock) -> list[cp_model.IntVar] | bool:
+               clock: ShiftClock) -> list[cp_model.IntVar] | Literal[True]:
     """One literal per day j of the window (and one for the window end): true only if
     the off-duty interval that ends where day j's shift starts (or at the window end)
     lasts `need` minutes inside the window. That interval starts at the latest end of
@@ -153,7 +155,7 @@ def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
         if j <= last:
             needed = [lit for lit, _ in starts]
             if not any(lit is True for lit in needed):
-                model.add_bool_or(needed).only_enforce_if(y)  # type: ignore[arg-type]
+                model.add_bool_or(needed).only_enforce_if(y)
         for clause in clauses:
             forbid(model, [y, *clause])
         ends.append(y)

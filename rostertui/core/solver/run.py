@@ -27,13 +27,14 @@ import time
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from datetime import date, timedelta
+from typing import cast
 
 from ortools.sat.python import cp_model
 
 from rostertui.core.check import CheckResult, check_roster
 from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
-from rostertui.core.models.roster import Roster, SolveRecord
+from rostertui.core.models.roster import Roster, SolveRecord, SolveStatus
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
 from rostertui.core.solver.decompose.loop import Checkpoint
@@ -86,7 +87,7 @@ class SolveProgress:
 
 @dataclass
 class SolveOutcome:
-    status: str  # optimal | feasible | infeasible | unknown
+    status: SolveStatus
     roster: Roster | None
     objective: int | None
     bound: int | None
@@ -373,7 +374,8 @@ def solve(
     solver.parameters.linearization_level = 2
     solver.best_bound_callback = lambda bound: recorder.report(
         time.monotonic() - started, round(bound))
-    searched = not (recorder.best is not None and recorder.should_stop(recorder.best_objective))
+    searched = not (recorder.best_objective is not None
+                    and recorder.should_stop(recorder.best_objective))
     code = cp_model.FEASIBLE
     if searched:
         stop_watch = _watch_cancel(solver, cancel, recorder)
@@ -389,12 +391,12 @@ def solve(
     seconds = time.monotonic() - started
     phases["search"] = seconds - sum(phases.get(k, 0.0)
                                      for k in ("first", "lp", "decompose", "improve"))
-    status = {
+    status = cast(SolveStatus, {
         cp_model.OPTIMAL: "optimal",
         cp_model.FEASIBLE: "feasible",
         cp_model.INFEASIBLE: "infeasible",
         cp_model.MODEL_INVALID: "unknown",
-    }.get(code, "unknown")
+    }.get(code, "unknown"))
     cp_bound = round(solver.best_objective_bound) if searched else 0
     outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
                            build_seconds=build_seconds, history=recorder.history,

@@ -20,7 +20,7 @@ class Term:
     person: str | None
     dates: tuple[date, ...]
     weight: int
-    units: cp_model.IntVar | int  # a 0/1 literal or an integer variable, exact
+    units: cp_model.BoolVarT | cp_model.IntVar | int  # a 0/1 literal or an integer variable, exact
 
 
 @dataclass
@@ -35,7 +35,7 @@ class Build:
     def hard(self, constraint: cp_model.Constraint | None) -> None:
         """A hard rule's constraint: switched by `enforce` when explaining, else as is."""
         if constraint is not None and self.enforce is not None and self.enforce is not True:
-            constraint.only_enforce_if(self.enforce)  # type: ignore[arg-type]
+            constraint.only_enforce_if(self.enforce)
 
     def add(self, rule: str, kind: str, person: str | None, dates: tuple[date, ...],
             weight: int, units: cp_model.IntVar | int | Lit) -> None:
@@ -44,7 +44,7 @@ class Build:
             units = 1
         if weight == 0 or units is False or (isinstance(units, int) and units == 0):
             return
-        self.terms.append(Term(rule, kind, person, dates, weight, units))  # type: ignore[arg-type]
+        self.terms.append(Term(rule, kind, person, dates, weight, units))
 
-    def objective(self) -> cp_model.LinearExprT:
-        return sum(t.weight * t.units for t in self.terms)  # type: ignore[return-value]
+    def objective(self) -> cp_model.LinearExpr | int:
+        return sum(t.weight * t.units for t in self.terms)

@@ -5,6 +5,8 @@ Weekends are maximal runs of weekend days and holidays inside the period.
 
 from __future__ import annotations
 
+from ortools.sat.python import cp_model
+
 from rostertui.core.models.common import WEEKDAYS
 from rostertui.core.models.rules import CompleteWeekends, MaxWeekends
 from rostertui.core.models.workspace import EffectiveRule
@@ -49,7 +51,7 @@ class WeekendsWorked:
             found = self._lits[p, k] = any_of(self.b.model, lits, f"wk[{p},{k}]")
         return found
 
-    def count(self, p: int):  # noqa: ANN201 - a linear expression and its bounds
+    def count(self, p: int) -> tuple[cp_model.LinearExpr | int, int, int]:  # expression, bounds
         vars_, const = bool_sum(self.worked(p, k) for k in range(len(self.spans)))
         return (sum(vars_) + const if vars_ else const), const, const + len(vars_)
 

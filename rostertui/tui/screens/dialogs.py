@@ -4,11 +4,11 @@ and the note after a write."""
 from __future__ import annotations
 
 from textual import on
-from textual.app import ComposeResult
+from textual.app import App, ComposeResult
 from textual.binding import Binding
 from textual.containers import Horizontal, Vertical
-from textual.dom import DOMNode
 from textual.screen import ModalScreen
+from textual.widget import Widget
 from textual.widgets import Button, Label, Static
 
 
@@ -104,7 +104,7 @@ class ErrorDialog(ModalScreen[None]):
         self.dismiss()
 
 
-def notify_written(node: DOMNode, done: str, notices: list[str], timeout: float = 5) -> None:
+def notify_written(node: App | Widget, done: str, notices: list[str], timeout: float = 5) -> None:
     """Say what was written; with the save's notices (a file written fresh: where its
     previous text is kept), as a warning that stays longer."""
     if notices:

@@ -84,7 +84,7 @@ class EditorsScreen(PanelScreen):
 
     def action_tab(self, step: int) -> None:
         tabs = self.query_one(TabbedContent)
-        ids = [pane.id for pane in self.query(TabPane)]
+        ids = [str(pane.id) for pane in self.query(TabPane)]  # every pane has an id
         tabs.active = ids[(ids.index(tabs.active) + step) % len(ids)]
 
     @on(WorkspaceEdited)

@@ -5,7 +5,7 @@ from __future__ import annotations
 from rich.table import Table
 from rich.text import Text
 from textual.app import ComposeResult
-from textual.binding import Binding
+from textual.binding import Binding, BindingType
 from textual.containers import Horizontal, VerticalScroll
 from textual.content import Content
 from textual.screen import ModalScreen
@@ -30,7 +30,7 @@ def keys_text(binding: Binding) -> str:
     return " / ".join(key_name(k.strip()) for k in binding.key.split(","))
 
 
-def bindings_table(sections: list[tuple[str, list[Binding], list[tuple[str, str]]]],
+def bindings_table(sections: list[tuple[str, list[BindingType], list[tuple[str, str]]]],
                    key_colour: str = "yellow", title_colour: str = "blue") -> Table:
     """A Rich table (Textual does not restyle it): the colours are given, from the theme."""
     table = Table(show_header=False, box=None, padding=(0, 2, 0, 0), expand=False)

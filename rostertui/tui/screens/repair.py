@@ -10,10 +10,11 @@ from __future__ import annotations
 
 from collections.abc import Iterable
 from datetime import date
+from typing import TYPE_CHECKING
 
-from rich.text import Text
 from textual import on
 from textual.binding import Binding
+from textual.content import Content
 from textual.widget import Widget
 from textual.widgets import Button, DataTable, Input, Label, Static
 
@@ -24,6 +25,9 @@ from rostertui.core.words import day as day_text
 from rostertui.core.words import weekday_day
 from rostertui.tui.messages import SessionChanged
 from rostertui.tui.screens.solve import SearchScreen, SolveSettings, progress_text
+
+if TYPE_CHECKING:
+    from rostertui.core.repair.repair import RepairOutcome
 
 
 def shown(code: str) -> str:
@@ -50,7 +54,7 @@ class RepairScreen(SearchScreen):
     def __init__(self, settings: SolveSettings, start_from: date) -> None:
         super().__init__(settings)
         self.start_from = start_from
-        self.result = None  # the RepairOutcome, once done
+        self.result: RepairOutcome | None = None  # once done
         self.kept = False
 
     def heading(self) -> str:
@@ -108,7 +112,7 @@ class RepairScreen(SearchScreen):
             self.summary += (f" {len(result.past)} hard breach(es) before "
                              f"{day_text(result.start_from)} are the past's, left as they were.")
         self.summary += " Not in the grid yet: k keeps it."
-        self.say(Text(self.summary, style="bold"))
+        self.say(Content.styled(self.summary, "bold"))
         self._fill(result)
         keep = self.query_one("#keep", Button)
         keep.display = True

@@ -16,7 +16,7 @@ import threading
 import time
 from collections.abc import Iterable
 from dataclasses import dataclass
-from typing import Any
+from typing import Any, ClassVar
 
 from textual import on
 from textual.app import ComposeResult
@@ -25,6 +25,7 @@ from textual.containers import Horizontal, Vertical
 from textual.content import Content
 from textual.reactive import reactive
 from textual.screen import ModalScreen
+from textual.types import CSSPathType
 from textual.widget import Widget
 from textual.widgets import Button, Input, Label, Sparkline, Static
 from textual.worker import Worker, WorkerState
@@ -79,7 +80,7 @@ def progress_text(elapsed: float, penalty: int | None, bound: int | None,
 class SearchScreen(ModalScreen[None]):
     """Settings, a search in a thread worker with live progress, then the result."""
 
-    CSS_PATH = "solve.tcss"
+    CSS_PATH: ClassVar[CSSPathType | None] = "solve.tcss"
 
     BINDINGS = [
         Binding("escape", "stop_or_close", "Stop / close"),

@@ -40,7 +40,8 @@ def _fill(value: Number, scale: Number, width: int) -> list[str]:
     """Characters of a bar `value / scale` of `width` cells."""
     if scale <= 0 or width <= 0:
         return [" "] * max(width, 0)
-    eighths = round(max(0, min(Fraction(value), Fraction(scale))) / Fraction(scale) * width * 8)
+    eighths = round(max(Fraction(0), min(Fraction(value), Fraction(scale))) / Fraction(scale)
+                    * width * 8)
     full, part = divmod(int(eighths), 8)
     cells = ["█"] * full
     if full < width:

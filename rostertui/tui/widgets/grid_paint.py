@@ -16,8 +16,9 @@ from rich.segment import Segment
 from rich.style import Style
 from textual.strip import Strip
 
+from rostertui.core.check.builtin import honoured as granted
 from rostertui.core.edit.session import Session
-from rostertui.core.edit.view import DayColumn, GridView, granted
+from rostertui.core.edit.view import DayColumn, GridView
 from rostertui.core.models.common import OFF
 from rostertui.core.words import month, number
 

@@ -96,8 +96,8 @@ def _cover_rows(ws: Workspace, grid: Grid) -> list[str]:
     for s in ws.shifts.shift:
         counts = [sum(1 for pid in ws.person_ids if grid.rows[pid][i] == s.code)
                   for i in range(grid.n)]
-        cells = "".join(_td(str(n), cls) for n, cls in zip(counts, classes, strict=True))
-        out.append(f'<tr class="cover"><td class="who">on {esc(s.code)}</td>{cells}'
+        tds = "".join(_td(str(n), cls) for n, cls in zip(counts, classes, strict=True))
+        out.append(f'<tr class="cover"><td class="who">on {esc(s.code)}</td>{tds}'
                    "<td></td><td></td></tr>")
     for c in ws.shifts.cover:
         holders = [p.id for p in ws.staff.person if c.skill is None or c.skill in p.skills]

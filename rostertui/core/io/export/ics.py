@@ -16,6 +16,7 @@
 from __future__ import annotations
 
 from datetime import UTC, datetime, timedelta
+from typing import cast
 from zoneinfo import ZoneInfo
 
 from icalendar import Calendar, Event, Timezone, vDDDTypes
@@ -98,7 +99,7 @@ def ics_all(ws: Workspace, now: datetime | None = None) -> str:
         summary = f"{names[cell.person]}: {cell.shift.name} ({cell.code})"
         note = noted.get((cell.person, cell.date), [])
         cal.add_component(_event(ws, cell, summary, note, stamp, seq))
-    return cal.to_ical().decode("utf-8")
+    return cast(str, cal.to_ical().decode("utf-8"))
 
 
 def ics_per_person(ws: Workspace, now: datetime | None = None) -> dict[str, str]:

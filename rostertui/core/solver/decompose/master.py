@@ -149,7 +149,7 @@ class Master:
         columns = solver.variables()
 
         def dual(ct: pywraplp.Constraint) -> float:
-            return rows[ct.index()].dual_value()
+            return float(rows[ct.index()].dual_value())
 
         self._values = [columns[v.index()].solution_value() for v in self._vars]
         return Duals(

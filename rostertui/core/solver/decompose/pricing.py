@@ -51,7 +51,7 @@ class Metric:
     """One person's value of one balance rule's metric, in the person's model."""
 
     rule: int  # index of the balance rule in the list PersonModel was given
-    expr: cp_model.LinearExprT
+    expr: cp_model.LinearExpr | int
     divisor: int  # the expression's value / divisor = the metric (hours are scaled)
     lo: Fraction
     hi: Fraction
