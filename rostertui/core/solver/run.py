@@ -40,7 +40,7 @@ from rostertui.core.solver.decompose.loop import Checkpoint
 from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
-from rostertui.core.solver.model import Built, build_model
+from rostertui.core.solver.model import BuiltModel, build_model
 from rostertui.core.solver.primal import Incumbent, improve
 from rostertui.core.solver.primal.first import first_roster
 from rostertui.core.solver.primal.portfolio import FIRST
@@ -146,7 +146,7 @@ FINISH_PER_CONSTRAINT = 2.0e-6
 class _Recorder(cp_model.CpSolverSolutionCallback):
     """Records each improving roster; prints nothing; stops the search on cancel."""
 
-    def __init__(self, built: Built, started: float, on_progress: ProgressCallback | None,
+    def __init__(self, built: BuiltModel, started: float, on_progress: ProgressCallback | None,
                  cancel: threading.Event | None):
         super().__init__()
         self.built = built
@@ -232,7 +232,7 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
             self.on_progress(progress)
 
 
-def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster:
+def roster_from(built: BuiltModel, values: dict[tuple[int, int, str], int]) -> Roster:
     cells = built.cells
     rows = {pid: [OFF] * cells.n for pid in cells.people}
     for (p, d, code), v in values.items():
@@ -242,7 +242,7 @@ def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster
     return Roster(start=cells.start, days=cells.n, rows=rows, lock=locks)
 
 
-def _hint(built: Built, budget: float) -> Incumbent | None:
+def _hint(built: BuiltModel, budget: float) -> Incumbent | None:
     """Warm start from the workspace's current roster, within `budget` seconds.
 
     The roster's cells alone leave CP-SAT to complete every auxiliary variable, which
@@ -359,7 +359,7 @@ def solve(
         elif decomposition.converged and not built.model.proto.solution_hint.vars:
             built.cells.hint_rows(decomposition.heaviest())
         if recorder.proven is not None and options.floor:  # need not prove the proven
-            floor = built.model.add(built.build.objective() >= recorder.proven)
+            floor = built.model.add(built.builder.objective() >= recorder.proven)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
         min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
@@ -436,7 +436,7 @@ def solve(
     return outcome
 
 
-def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Recorder,
+def _decompose(ws: Workspace, built: BuiltModel, options: SolveOptions, recorder: _Recorder,
                budget: float, cancel: threading.Event | None) -> Decomposition:
     """Column generation for at most its share of the `budget` seconds left, its bound
     shown as it rises."""
@@ -462,7 +462,7 @@ def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Re
         recorder.report(time.monotonic() - recorder.started)
 
 
-def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
+def polish(built: BuiltModel, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
     """The exact objective of a found roster under the model: fix every cell, minimise.
 
     Penalty variables are only bounded from below during the search (logic.py);
