@@ -164,11 +164,11 @@ HISTORY_KINDS = ("forbidden-sequence", "weekly-rest", "min-consecutive-off",
 
 @st.composite
 def workspaces(draw, rich_history: bool = False, max_people: int = 6, max_days: int = 14,
-               max_codes: int = 4, min_people: int = 2) -> Spec:
+               max_codes: int = 4, min_people: int = 2, min_days: int = 3) -> Spec:
     """A random workspace; `rich_history`: everyone has history, mostly ending on a shift,
     and rules that history can break come up more often."""
     start = draw(STARTS)
-    n = draw(st.integers(min(3, max_days), max_days))
+    n = draw(st.integers(min(min_days, max_days), max_days))
     dates = [start + timedelta(days=i) for i in range(n)]
     people = PEOPLE[: draw(st.integers(min_people, max_people))]
     staff = [{"id": pid, "name": f"Person {pid}", "skills": _subset(draw, SKILLS),

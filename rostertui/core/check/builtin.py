@@ -23,7 +23,8 @@ from rostertui.core.models.workspace import Workspace
 
 def _hard(kind: str, person: str | None, d: date, units: int, message: str,
           **extra: Any) -> Violation:
-    return Violation(kind, kind, True, person, (d,), units, 0, message, None, **extra)
+    return Violation(rule=kind, kind=kind, hard=True, person=person, dates=(d,), units=units,
+                     penalty=0, message=message, source=None, **extra)
 
 
 def person_cells(ws: Workspace, grid: Grid) -> list[Violation]:
@@ -45,17 +46,6 @@ def person_cells(ws: Workspace, grid: Grid) -> list[Violation]:
                     "requires", pid, d, 1, f"{code} on {fmt.day(d)} requires {', '.join(needed)}"
                 ))
     return out
-
-
-def locks(ws: Workspace, grid: Grid) -> list[Violation]:
-    """`[[lock]]` in a single roster: never violated.
-
-    A locked cell "keeps its current value", and in a checked roster the current
-    value is the roster's own, so there is nothing to compare with (cases 503,
-    505, 507 and 509 hold locks and report none). Use `check_locks` to compare a
-    roster with the one it was solved from.
-    """
-    return []
 
 
 def check_locks(ws: Workspace, before: Roster, after: Roster) -> list[Violation]:
@@ -93,7 +83,8 @@ def cover_days(cover: Cover, grid: Grid) -> list[int]:
 def _cover(c: Cover, hard: bool, d: date, units: int, weight: int, text: str) -> Violation:
     penalty = 0 if hard else units * weight
     return Violation(
-        "cover", "cover", hard, None, (d,), units, penalty, text, None, c.shift, c.skill
+        rule="cover", kind="cover", hard=hard, person=None, dates=(d,), units=units,
+        penalty=penalty, message=text, source=None, shift=c.shift, skill=c.skill,
     )
 
 
@@ -160,6 +151,7 @@ def requests(ws: Workspace, grid: Grid,
         else:
             text = f"asked not to work {r.avoid} on {when}, has {has}"
         out.append(Violation(
-            "request", "request", False, r.person, (r.date,), 1, r.weight, text, None
+            rule="request", kind="request", hard=False, person=r.person, dates=(r.date,),
+            units=1, penalty=r.weight, message=text, source=None,
         ))
     return out

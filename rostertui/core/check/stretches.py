@@ -1,4 +1,4 @@
-"""Stretch rules and day sequences (rules.md, "Terms": stretch; "Kinds"; fine print).
+"""Stretch rules (rules.md, "Terms": stretch; "Kinds"; fine print).
 
 A stretch is a maximal run of working days, days off, or days on one shift type,
 judged over history + period. Only stretches with a day in the period are judged.
@@ -17,7 +17,6 @@ from rostertui.core.check.grid import Grid, runs
 from rostertui.core.check.result import Violation, violation
 from rostertui.core.models.common import OFF
 from rostertui.core.models.rules import (
-    ForbiddenSequence,
     MaxConsecutiveDays,
     MaxConsecutiveShift,
     MinConsecutiveDays,
@@ -117,26 +116,3 @@ def max_consecutive_shift(ws: Workspace, eff: EffectiveRule, grid: Grid) -> list
     return _too_long(
         eff, grid, selected.__contains__, rule.count, lambda n: f"{n} {label} shifts in a row"
     )
-
-
-def forbidden_sequence(ws: Workspace, eff: EffectiveRule, grid: Grid) -> list[Violation]:
-    """`forbidden-sequence`: `first` on day d, one of `then` on d+1 (history's last day too)."""
-    rule = eff.rule
-    assert isinstance(rule, ForbiddenSequence)
-    first = ws.select(rule.first)
-    then: set[str] = set()
-    for selector in rule.then:
-        then |= ws.select(selector)
-    out: list[Violation] = []
-    for pid in eff.people:
-        full, offset = grid.full(pid)
-        for i in range(max(offset, 1), len(full)):
-            before, after = full[i - 1], full[i]
-            if before in first and after in then:
-                d = i - offset
-                shown = "a day off" if after == OFF else after
-                out.append(violation(
-                    eff, pid, (grid.date(d - 1), grid.date(d)), 1,
-                    f"{before} on {fmt.day(grid.date(d - 1))} followed by {shown}",
-                ))
-    return out

@@ -1,9 +1,16 @@
-"""One model per rule kind (rules.md), joined in a discriminated union on `kind`."""
+"""One model per rule kind (rules.md), joined in a discriminated union on `kind`.
+
+The union is the one list of rule kinds. Each model names its `family`: the
+checker's evaluator of a kind is the function named like the kind (`-` as `_`) in
+check/<family>.py, and the solver's encoder the function of that name in
+solver/<family>.py (check/run.py and solver/model.py look them up;
+tests/core/test_kinds.py checks every kind has both, and a hand-worked test).
+"""
 
 from __future__ import annotations
 
 from datetime import date
-from typing import Annotated, Literal
+from typing import Annotated, ClassVar, Literal, get_args
 
 from pydantic import Field, PositiveInt, TypeAdapter, model_validator
 
@@ -24,6 +31,8 @@ Edges = Literal["open", "closed"]
 class RuleBase(Strict):
     """Fields every rule has: identity, scope, hard/soft, source."""
 
+    family: ClassVar[str]  # the module name of its evaluator and encoder (see above)
+
     id: Identifier
     people: list[Identifier] | None = None
     groups: list[Identifier] | None = None
@@ -39,11 +48,13 @@ class RuleBase(Strict):
 
 class MinRest(RuleBase):
     kind: Literal["min-rest"]
+    family: ClassVar[str] = "rest"
     hours: Annotated[float, Field(gt=0, le=168)]
 
 
 class WeeklyRest(RuleBase):
     kind: Literal["weekly-rest"]
+    family: ClassVar[str] = "rest"
     hours: Annotated[float, Field(gt=0, le=MAX_HOURS)]
     window_days: Annotated[int, Field(ge=1, le=366)] = 7
     align: Literal["monday", "period-start", "rolling"] = "monday"
@@ -59,47 +70,55 @@ class WeeklyRest(RuleBase):
 
 class MaxConsecutiveDays(RuleBase):
     kind: Literal["max-consecutive-days"]
+    family: ClassVar[str] = "stretches"
     days: Days
 
 
 class MinConsecutiveDays(RuleBase):
     kind: Literal["min-consecutive-days"]
+    family: ClassVar[str] = "stretches"
     days: Days
     edges: Edges = "open"
 
 
 class MinConsecutiveOff(RuleBase):
     kind: Literal["min-consecutive-off"]
+    family: ClassVar[str] = "stretches"
     days: Days
     edges: Edges = "open"
 
 
 class MaxConsecutiveShift(RuleBase):
     kind: Literal["max-consecutive-shift"]
+    family: ClassVar[str] = "stretches"
     shift: Selector
     count: Days
 
 
 class ForbiddenSequence(RuleBase):
     kind: Literal["forbidden-sequence"]
+    family: ClassVar[str] = "sequences"
     first: Selector
     then: Annotated[list[Selector], Field(min_length=1)]
 
 
 class MaxShifts(RuleBase):
     kind: Literal["max-shifts"]
+    family: ClassVar[str] = "counts"
     count: Count
     shift: Selector | None = None
 
 
 class MinShifts(RuleBase):
     kind: Literal["min-shifts"]
+    family: ClassVar[str] = "counts"
     count: Count
     shift: Selector | None = None
 
 
 class HoursRule(RuleBase):
     kind: Literal["hours"]
+    family: ClassVar[str] = "hours"
     min: Hours | None = None
     max: Hours | None = None
     target: Hours | None = None
@@ -117,21 +136,25 @@ class HoursRule(RuleBase):
 
 class MaxAverageWeeklyHours(RuleBase):
     kind: Literal["max-average-weekly-hours"]
+    family: ClassVar[str] = "hours"
     hours: Annotated[float, HourResolution, Field(gt=0, le=168)]
     weeks: Annotated[int, Field(ge=1, le=52)]
 
 
 class MaxWeekends(RuleBase):
     kind: Literal["max-weekends"]
+    family: ClassVar[str] = "weekends"
     count: Count
 
 
 class CompleteWeekends(RuleBase):
     kind: Literal["complete-weekends"]
+    family: ClassVar[str] = "weekends"
 
 
 class NotAvailable(RuleBase):
     kind: Literal["not-available"]
+    family: ClassVar[str] = "not_available"
     days: list[Weekday] | None = None
     dates: list[date] | None = None
     shift: Selector | None = None
@@ -144,6 +167,7 @@ BalanceMetric = Annotated[
 
 class Balance(RuleBase):
     kind: Literal["balance"]
+    family: ClassVar[str] = "balance"
     metric: BalanceMetric
 
     @model_validator(mode="after")
@@ -172,23 +196,23 @@ Rule = Annotated[
     Field(discriminator="kind"),
 ]
 
-RULE_KINDS: tuple[str, ...] = (
-    "min-rest",
-    "weekly-rest",
-    "max-consecutive-days",
-    "min-consecutive-days",
-    "min-consecutive-off",
-    "max-consecutive-shift",
-    "forbidden-sequence",
-    "max-shifts",
-    "min-shifts",
-    "hours",
-    "max-average-weekly-hours",
-    "max-weekends",
-    "complete-weekends",
-    "not-available",
-    "balance",
-)
+# The union's members in its order, and their `kind`s (the order of messages).
+RULE_MODELS: tuple[type[RuleBase], ...] = get_args(get_args(Rule)[0])
+
+
+def kind_of(model: type[RuleBase]) -> str:
+    """The `kind` a rule model's literal names."""
+    kind: str = get_args(model.model_fields["kind"].annotation)[0]
+    return kind
+
+
+RULE_KINDS: tuple[str, ...] = tuple(kind_of(m) for m in RULE_MODELS)
+RULE_FAMILY: dict[str, str] = {kind_of(m): m.family for m in RULE_MODELS}
+
+
+def function_name(kind: str) -> str:
+    """The name of a kind's evaluator and encoder in its family's modules."""
+    return kind.replace("-", "_")
 
 rule_adapter: TypeAdapter[Rule] = TypeAdapter(Rule)
 

@@ -2,18 +2,23 @@
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from ortools.sat.python import cp_model
 
 from rostertui.core.models.rules import Balance
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.counts import shift_count
-from rostertui.core.solver.hours import Hours
 from rostertui.core.solver.logic import ceil_div
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.scaled_hours import Hours
+from rostertui.core.solver.terms import ModelBuilder
 from rostertui.core.solver.weekends import WeekendsWorked
 
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
-def metric_of(b: Build, metric: str, p: int, hours: Hours, ww: WeekendsWorked
+
+def metric_of(b: ModelBuilder, metric: str, p: int, hours: Hours, ww: WeekendsWorked
               ) -> tuple[cp_model.LinearExpr | int, int, int]:
     """(expression, lowest, highest) of person p's balance metric; hours are scaled by
     `hours.scale`, every other metric is a count."""
@@ -29,8 +34,9 @@ def metric_of(b: Build, metric: str, p: int, hours: Hours, ww: WeekendsWorked
     return shift_count(b, p, frozenset([metric.removeprefix("shift:")]))
 
 
-def add_balance(b: Build, eff: EffectiveRule, hours: Hours, ww: WeekendsWorked) -> None:
+def balance(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
+    hours, ww = shared.hours, shared.weekends
     assert isinstance(rule, Balance) and rule.weight is not None
     if len(eff.people) < 2:
         return

@@ -13,9 +13,9 @@ from datetime import date, timedelta
 
 from ortools.sat.python import cp_model
 
-from rostertui.core.models.common import OFF, WEEKDAYS
-from rostertui.core.models.rules import NotAvailable
+from rostertui.core.models.common import OFF
 from rostertui.core.models.workspace import Workspace
+from rostertui.core.solver import not_available
 from rostertui.core.solver.logic import Lit
 
 
@@ -69,15 +69,7 @@ class Cells:
                 i = (day - self.start).days
                 if 0 <= i < self.n:
                     leave.add((lv.person, i))
-        blocked: set[tuple[str, int, str]] = set()
-        for eff in ws.rules:
-            rule = eff.rule
-            if isinstance(rule, NotAvailable) and rule.weight is None:
-                codes = ws.select(rule.shift) if rule.shift else frozenset(self.codes)
-                for d in self.not_available_days(rule):
-                    for pid in eff.people:
-                        for code in codes:
-                            blocked.add((pid, d, code))
+        blocked = not_available.blocked(ws, self.codes, self.start, self.n)
         shifts = ws.shift_by_code
         skills = {p.id: set(p.skills) for p in ws.staff.person}
         out: list[list[list[str]]] = []
@@ -89,15 +81,6 @@ class Cells:
                 for d in range(self.n)
             ])
         return out
-
-    def not_available_days(self, rule: NotAvailable) -> list[int]:
-        """Day indexes a not-available rule names (days and dates combine; neither = all)."""
-        if rule.days is None and rule.dates is None:
-            return list(range(self.n))
-        weekdays = {WEEKDAYS.index(w) for w in rule.days or []}
-        dates = set(rule.dates or [])
-        return [d for d in range(self.n)
-                if self.date(d).weekday() in weekdays or self.date(d) in dates]
 
     def _read_locks(self) -> None:
         roster = self.ws.roster

@@ -11,7 +11,7 @@ from rostertui.core.models.common import WEEKDAYS
 from rostertui.core.models.shifts import Cover
 from rostertui.core.solver.cells import Cells
 from rostertui.core.solver.logic import Lit, bool_sum, excess
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
 
 CoverSwitch = Callable[[int, int], Lit]  # (cover entry, day) -> its switch
 
@@ -27,7 +27,7 @@ def cover_days(cover: Cover, cells: Cells) -> list[int]:
     return list(range(cells.n))
 
 
-def add_cover(b: Build, items: CoverSwitch | None = None, gap_weight: int | None = None
+def add_cover(b: ModelBuilder, items: CoverSwitch | None = None, gap_weight: int | None = None
               ) -> list[tuple[int, int, cp_model.IntVar | int]]:
     """Cover constraints and ideal penalties. `items` (explain) gives each minimum and
     maximum on each date its own switch; `gap_weight` turns each minimum into a

@@ -11,12 +11,12 @@ from collections.abc import Collection, Mapping, Sequence
 from ortools.sat.python import cp_model
 
 from rostertui.core.models.common import OFF
-from rostertui.core.solver.model import Built
+from rostertui.core.solver.model import BuiltModel
 
 Values = dict[tuple[int, int, str], int]  # (person, day, code) -> 0/1, per cell variable
 
 
-def fixed_copy(built: Built, values: Values,
+def fixed_copy(built: BuiltModel, values: Values,
                free: Collection[tuple[int, int]] = ()) -> cp_model.CpModel:
     """A copy of the model with every cell fixed to `values` but those whose (person,
     day) is in `free`. Fixed in the variable's domain, which is much quicker to write
@@ -50,7 +50,7 @@ def hint_solution(model: cp_model.CpModel, solution: Sequence[int]) -> None:
     hint.values.extend(solution)
 
 
-def values_of(built: Built, rows: Mapping[int, Sequence[str]]) -> Values:
+def values_of(built: BuiltModel, rows: Mapping[int, Sequence[str]]) -> Values:
     """Cell values from a row of codes per person (index); people missing are off."""
     values: Values = {}
     for key in built.cells.x:
@@ -60,7 +60,7 @@ def values_of(built: Built, rows: Mapping[int, Sequence[str]]) -> Values:
     return values
 
 
-def rows_of(built: Built, values: Values) -> dict[int, list[str]]:
+def rows_of(built: BuiltModel, values: Values) -> dict[int, list[str]]:
     """A row of codes per person (index) from cell values."""
     cells = built.cells
     rows = {p: [OFF] * cells.n for p in range(len(cells.people))}
@@ -70,7 +70,7 @@ def rows_of(built: Built, values: Values) -> dict[int, list[str]]:
     return rows
 
 
-def evaluate(built: Built, values: Values, time_limit: float
+def evaluate(built: BuiltModel, values: Values, time_limit: float
              ) -> tuple[int, list[int]] | None:
     """The exact objective of the roster `values` and a complete assignment of every
     variable for it (a hint), or None when it breaks a hard rule or time runs out."""

@@ -1,96 +1,56 @@
-"""Hours as exact integers: every value in the files times one common scale.
-
-rules.md sums hours exactly and rounds only the deviation up to whole hours. The
-files hold decimals (7.5, 41.8, 5.75) and averaging limits bring sevenths
-(48 x days / 7), so all hour values are multiplied by the least common multiple
-of their denominators; "rounded up" is then an exact ceiling division by it.
-"""
+"""Hours rules (rules.md: hours, max-average-weekly-hours). Hours are exact scaled
+integers (scaled_hours.py); only deviations round up."""
 
 from __future__ import annotations
 
-import math
 from fractions import Fraction
-
-from ortools.sat.python import cp_model
+from typing import TYPE_CHECKING
 
 from rostertui.core.models.rules import HoursRule, MaxAverageWeeklyHours
-from rostertui.core.models.workspace import Workspace
-from rostertui.core.solver.cells import Cells
+from rostertui.core.models.workspace import EffectiveRule
+from rostertui.core.solver.counts import deviation
+from rostertui.core.solver.logic import absolute, ceil_div
+from rostertui.core.solver.scaled_hours import exact
+from rostertui.core.solver.terms import ModelBuilder
 
-MAX_SCALE = 10**6
-
-
-def exact(value: float) -> Fraction:
-    return Fraction(str(value))
-
-
-def paid(ws: Workspace, code: str) -> Fraction:
-    shift = ws.shift_by_code[code]
-    return exact(shift.paid_hours) if shift.paid_hours is not None else Fraction(shift.minutes, 60)
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
 
-class Hours:
-    """Scaled hour expressions per person: paid hours of shifts plus leave credit."""
+def hours(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    rule = eff.rule
+    hours = shared.hours
+    assert isinstance(rule, HoursRule)
+    s = hours.scale
+    for pid in eff.people:
+        expr, lo, hi = hours.of(b.cells.pindex[pid])
+        if rule.max is not None:
+            m = hours.scaled(exact(rule.max))
+            deviation(b, eff, pid, expr - m, lo - m, hi - m, s)
+        if rule.min is not None:
+            m = hours.scaled(exact(rule.min))
+            deviation(b, eff, pid, m - expr, m - hi, m - lo, s)
+        if rule.target is not None and rule.weight is not None:
+            t = hours.scaled(exact(rule.target))
+            top = max(abs(lo - t), abs(hi - t))
+            away = absolute(b.model, expr - t, lo - t, hi - t, f"{rule.id}.{pid}.away")
+            units = ceil_div(b.model, away, s, top, f"{rule.id}.{pid}.target")
+            b.add(rule.id, rule.kind, pid, (), rule.weight, units)
 
-    def __init__(self, cells: Cells):
-        self.cells = cells
-        ws = cells.ws
-        self.paid = {code: paid(ws, code) for code in cells.codes}
-        self.credit = self._credit()
-        values: list[Fraction] = [*self.paid.values(), *self.credit.values(),
-                                  Fraction(cells.n, 7)]
-        for eff in ws.rules:
-            rule = eff.rule
-            if isinstance(rule, HoursRule):
-                values += [exact(v) for v in (rule.min, rule.max, rule.target) if v is not None]
-            elif isinstance(rule, MaxAverageWeeklyHours):
-                values += [exact(rule.hours), exact(rule.hours) * Fraction(cells.n, 7)]
-        if ws.history is not None:
-            values += [exact(v) for v in ws.history.hours_before.values()]
-        scale = 1
-        for v in values:
-            scale = math.lcm(scale, v.denominator)
-            if scale > MAX_SCALE:
-                raise ValueError("hour values need a finer scale than the solver supports")
-        self.scale = scale
-        self._expr: dict[int, tuple[cp_model.LinearExpr | int, int, int]] = {}
 
-    def _credit(self) -> dict[str, Fraction]:
-        """Leave credit per person in the period (one credit per leave day, the largest)."""
-        cells = self.cells
-        per_day: dict[tuple[str, int], Fraction] = {}
-        for lv in cells.ws.requests.leave:
-            credit = exact(lv.credit_hours) if lv.credit_hours is not None else Fraction(0)
-            for d in lv.dates():
-                i = (d - cells.start).days
-                if 0 <= i < cells.n:
-                    key = (lv.person, i)
-                    per_day[key] = max(per_day.get(key, Fraction(0)), credit)
-        total: dict[str, Fraction] = {}
-        for (pid, _), credit in per_day.items():
-            total[pid] = total.get(pid, Fraction(0)) + credit
-        return total
-
-    def scaled(self, value: Fraction) -> int:
-        scaled = value * self.scale
-        assert scaled.denominator == 1
-        return int(scaled)
-
-    def of(self, p: int) -> tuple[cp_model.LinearExpr | int, int, int]:
-        """(expression, lowest, highest) of person p's scaled hours in the period."""
-        found = self._expr.get(p)
-        if found is None:
-            cells = self.cells
-            const = self.scaled(self.credit.get(cells.people[p], Fraction(0)))
-            terms = []
-            top = const
-            for d in range(cells.n):
-                best = 0
-                for code, var in cells.cell(p, d):
-                    w = self.scaled(self.paid[code])
-                    terms.append(w * var)
-                    best = max(best, w)
-                top += best
-            expr = sum(terms) + const if terms else const
-            found = self._expr[p] = (expr, const, top)
-        return found
+def max_average_weekly_hours(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    rule = eff.rule
+    hours = shared.hours
+    assert isinstance(rule, MaxAverageWeeklyHours)
+    before = b.cells.ws.history.hours_before if b.cells.ws.history is not None else {}
+    per_week = exact(rule.hours)
+    for pid in eff.people:
+        expr, lo, hi = hours.of(b.cells.pindex[pid])
+        if pid in before:
+            base = hours.scaled(exact(before[pid]))
+            limit = hours.scaled(per_week * rule.weeks)
+        else:
+            base = 0
+            limit = hours.scaled(per_week * Fraction(b.cells.n, 7))
+        shift = base - limit
+        deviation(b, eff, pid, expr + shift, lo + shift, hi + shift, hours.scale)

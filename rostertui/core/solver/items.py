@@ -15,7 +15,7 @@ from ortools.sat.python import cp_model
 
 from rostertui.core.models.common import OFF
 from rostertui.core.solver.logic import forbid, negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
 
 
 @dataclass(frozen=True)
@@ -43,7 +43,7 @@ class Items:
         return {var.index: item for item, var in self.switches.items()}
 
 
-def add_leave_and_locks(b: Build, items: Items) -> None:
+def add_leave_and_locks(b: ModelBuilder, items: Items) -> None:
     """With relaxed cells, leave and locks are posted here, each under its switch."""
     cells = b.cells
     ws = cells.ws

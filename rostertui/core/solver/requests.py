@@ -3,10 +3,10 @@
 from __future__ import annotations
 
 from rostertui.core.solver.logic import negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
 
 
-def add_requests(b: Build) -> None:
+def add_requests(b: ModelBuilder) -> None:
     cells = b.cells
     for r in cells.ws.requests.request:
         p = cells.pindex.get(r.person)

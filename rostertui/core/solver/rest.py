@@ -13,7 +13,7 @@ before it; the window passes when one of them is true.
 
 from __future__ import annotations
 
-from typing import Literal
+from typing import TYPE_CHECKING, Literal
 
 from ortools.sat.python import cp_model
 
@@ -22,7 +22,10 @@ from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
 from rostertui.core.solver.clock import ShiftClock
 from rostertui.core.solver.logic import Lit, all_of, breach, forbid, negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
+
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
 MAX_SPAN_DAYS = 2  # a shift lasts at most 24 h (25 h across DST): it ends by day + 2
 
@@ -30,7 +33,7 @@ MAX_SPAN_DAYS = 2  # a shift lasts at most 24 h (25 h across DST): it ends by da
 class OffRuns:
     """Shared literals: person p is off on every day of [a, z] (history as constants)."""
 
-    def __init__(self, b: Build):
+    def __init__(self, b: ModelBuilder):
         self.b = b
         self._runs: dict[tuple[int, int, int], Lit] = {}
 
@@ -53,8 +56,9 @@ def _codes_on(cells: Cells, p: int, d: int) -> list[tuple[str, Lit]]:
     return list(cells.cell(p, d))
 
 
-def add_min_rest(b: Build, eff: EffectiveRule, clock: ShiftClock, runs: OffRuns) -> None:
+def min_rest(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
+    clock, runs = shared.clock, shared.runs
     assert isinstance(rule, MinRest)
     need = round(rule.hours * 60)
     reach = int(need // (24 * 60)) + MAX_SPAN_DAYS + 1  # days apart a short gap can span
@@ -94,8 +98,9 @@ def windows(cells: Cells, days: int, align: str) -> list[int]:
     return [f for f in firsts if f + days <= cells.n]
 
 
-def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock) -> None:
+def weekly_rest(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
+    clock = shared.clock
     assert isinstance(rule, WeeklyRest)
     need = round(rule.hours * 60)
     cells = b.cells
@@ -115,7 +120,7 @@ def add_weekly_rest(b: Build, eff: EffectiveRule, clock: ShiftClock) -> None:
                 b.add(rule.id, rule.kind, pid, dates, rule.weight, short)
 
 
-def _rest_ends(b: Build, p: int, f: int, last: int, lo: int, hi: int, need: int,
+def _rest_ends(b: ModelBuilder, p: int, f: int, last: int, lo: int, hi: int, need: int,
                clock: ShiftClock) -> list[cp_model.IntVar] | Literal[True]:
     """One literal per day j of the window (and one for the window end): true only if
     the off-duty interval that ends where day j's shift starts (or at the window end)

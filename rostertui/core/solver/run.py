@@ -27,7 +27,6 @@ import time
 from collections.abc import Callable
 from dataclasses import dataclass, field
 from datetime import date, timedelta
-from typing import cast
 
 from ortools.sat.python import cp_model
 
@@ -41,10 +40,14 @@ from rostertui.core.solver.decompose.loop import Checkpoint
 from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
-from rostertui.core.solver.model import Built, build_model
+from rostertui.core.solver.model import BuiltModel, build_model
 from rostertui.core.solver.primal import Incumbent, improve
 from rostertui.core.solver.primal.first import first_roster
 from rostertui.core.solver.primal.portfolio import FIRST
+
+# The default limit of a solve: the command line's --time-limit default (cli/args.py),
+# so a caller of the library gets what `rostertui solve` does.
+DEFAULT_TIME_LIMIT = 60.0
 
 
 class RefereeError(RosterError):
@@ -53,7 +56,7 @@ class RefereeError(RosterError):
 
 @dataclass(frozen=True)
 class SolveOptions:
-    time_limit: float = 60.0
+    time_limit: float = DEFAULT_TIME_LIMIT
     workers: int = 0  # 0 = every core
     seed: int = 0
     warm_start: bool = True  # hint the search with the workspace's current roster
@@ -126,8 +129,22 @@ MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a smal
 STALL_AT = 0.5  # column generation's checkpoint, as a share of its time (loop.Checkpoint)
 FIRST_SHARE = 0.1  # at most this share of the time left for a first roster before the bound
 HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
-HINT_CAP = 10.0  # ...and never more than this
-POLISH_CAP = 60.0  # a safety cap: polishing a fixed roster takes 1.1 s at 2014 people
+# ...and never more than this, however long the limit: the completion is propagation,
+# 2.9 s on 2014 people x 28 days (BENCHMARKS.md); one not done in three times that
+# is not near done, and the search makes better use of the time.
+HINT_CAP = 10.0
+# The completion is tried only with this much to spare beyond cloning and CP-SAT's
+# overhead (else it would be stopped before it started); without, only the roster's
+# cells are hinted.
+HINT_MIN = 0.1
+# Polish is kept back from the search (FINISH_PER_CONSTRAINT), not given a share, so
+# its limit is only a guard against a solve that never ends: polishing a fixed roster
+# takes 1.1 s at 2014 people; 60 s is over 50 times that, and running out raises
+# RefereeError instead of hanging.
+POLISH_CAP = 60.0
+# How often the cancel watcher looks between solutions: a cancel stops the search
+# within about this long, well within the second a user waits for after Esc.
+CANCEL_POLL = 0.1
 # Costs that grow with the built model, in seconds per constraint of its proto,
 # measured by `bench/bench_limit.py --phases` on 2014 people x 28 days (1.02 M
 # constraints, 0.50 M variables) on the development machine (x86_64, 2 cores,
@@ -147,7 +164,7 @@ FINISH_PER_CONSTRAINT = 2.0e-6
 class _Recorder(cp_model.CpSolverSolutionCallback):
     """Records each improving roster; prints nothing; stops the search on cancel."""
 
-    def __init__(self, built: Built, started: float, on_progress: ProgressCallback | None,
+    def __init__(self, built: BuiltModel, started: float, on_progress: ProgressCallback | None,
                  cancel: threading.Event | None):
         super().__init__()
         self.built = built
@@ -233,7 +250,7 @@ class _Recorder(cp_model.CpSolverSolutionCallback):
             self.on_progress(progress)
 
 
-def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster:
+def roster_from(built: BuiltModel, values: dict[tuple[int, int, str], int]) -> Roster:
     cells = built.cells
     rows = {pid: [OFF] * cells.n for pid in cells.people}
     for (p, d, code), v in values.items():
@@ -243,7 +260,7 @@ def roster_from(built: Built, values: dict[tuple[int, int, str], int]) -> Roster
     return Roster(start=cells.start, days=cells.n, rows=rows, lock=locks)
 
 
-def _hint(built: Built, budget: float) -> Incumbent | None:
+def _hint(built: BuiltModel, budget: float) -> Incumbent | None:
     """Warm start from the workspace's current roster, within `budget` seconds.
 
     The roster's cells alone leave CP-SAT to complete every auxiliary variable, which
@@ -259,7 +276,7 @@ def _hint(built: Built, budget: float) -> Incumbent | None:
     cells = built.cells
     values = values_of(built, {p: roster.rows.get(pid, ()) for p, pid in enumerate(cells.people)})
     size = len(built.model.proto.constraints)
-    if budget > FIX_PER_CONSTRAINT * size + SEARCH_OVERHEAD_PER_CONSTRAINT * size + 0.1:
+    if budget > FIX_PER_CONSTRAINT * size + SEARCH_OVERHEAD_PER_CONSTRAINT * size + HINT_MIN:
         exact = evaluate(built, values, min(HINT_CAP, budget - (time.monotonic() - started)
                                             - SEARCH_OVERHEAD_PER_CONSTRAINT * size))
         if exact is not None:
@@ -284,87 +301,161 @@ def solve(
     top of the penalty and the first `keep.frozen` days stay as they are. The
     outcome's objective and bound are still the rules.md penalty: the bound is then
     proven for rosters changing no more cells than the one returned.
+
+    The steps, in order: build, hint (the warm start), first roster, LP bound,
+    decomposition bound and primal heuristics, search parameters, search, polish,
+    referee; each takes what remains of one deadline (module docstring).
     """
-    options = options or SolveOptions()
-    workers = options.workers or os.cpu_count() or 1
-    t0 = time.monotonic()
-    deadline = options.deadline if options.deadline is not None else t0 + options.time_limit
-    phases: dict[str, float] = {}
-    built = build_model(ws, keep)
-    build_seconds = phases["build"] = time.monotonic() - t0
-    size = len(built.model.proto.constraints)
-    finish = FINISH_PER_CONSTRAINT * size  # kept back for polish and referee
-
-    def left() -> float:
-        return deadline - time.monotonic() - finish
-
-    incumbent = None
-    if options.warm_start:
-        t = time.monotonic()
-        incumbent = _hint(built, HINT_SHARE * left())
-        phases["hint"] = time.monotonic() - t
-    started = time.monotonic()
-    recorder = _Recorder(built, started, on_progress, cancel)
+    run = _build(ws, options or SolveOptions(), keep, cancel)
+    incumbent = _warm_start(run)
+    recorder = _Recorder(run.built, time.monotonic(), on_progress, cancel)
     if incumbent is not None and keep is None:
         recorder.offer(incumbent.values, incumbent.objective, WARM_START)
-    if options.decompose and keep is None and incumbent is None:
-        # a roster within seconds, however long the bounds take (the LP of a 100-person
-        # unit may use its whole share), kept as the best so far; neither a hint for the
-        # search nor a start for RINS (see below and primal/portfolio.py)
-        recorder.report(0.0)  # something to show while the first roster is found
+    if run.options.decompose and keep is None and incumbent is None:
+        _first_roster(run, recorder)
+    if run.options.lp_bound and keep is None:
+        _lp_bound(run, recorder)
+    decomposition, floor = None, None
+    if run.options.decompose and keep is None:
+        decomposition, floor = _decompose_and_improve(run, recorder, incumbent)
+    solver = _parameters(run, recorder)
+    code, searched = _search(run, solver, recorder, floor)
+    cp_bound = round(solver.best_objective_bound) if searched else 0
+    outcome = _outcome(run, recorder, code, searched, cp_bound, decomposition)
+    if recorder.best is None:
+        if outcome.status in ("optimal", "feasible"):
+            outcome.status = "unknown"
+        outcome.wall_seconds = time.monotonic() - run.t0
+        return outcome
+    _polish_and_referee(run, recorder, outcome, cp_bound)
+    outcome.wall_seconds = time.monotonic() - run.t0
+    return outcome
+
+
+@dataclass
+class _Run:
+    """One call of `solve`: what every step reads, and the seconds each phase took."""
+
+    ws: Workspace
+    options: SolveOptions
+    keep: Keep | None
+    cancel: threading.Event | None
+    t0: float  # when solve() was called
+    deadline: float  # time.monotonic() by which everything should be over
+    workers: int
+    built: BuiltModel
+    size: int  # constraints of the built model's proto
+    phases: dict[str, float]
+
+    @property
+    def finish(self) -> float:
+        """Seconds kept back for polish and referee."""
+        return FINISH_PER_CONSTRAINT * self.size
+
+    def left(self) -> float:
+        return self.deadline - time.monotonic() - self.finish
+
+
+def _build(ws: Workspace, options: SolveOptions, keep: Keep | None,
+           cancel: threading.Event | None) -> _Run:
+    """Step 1: the model (build_model), the deadline started before it."""
+    t0 = time.monotonic()
+    deadline = options.deadline if options.deadline is not None else t0 + options.time_limit
+    built = build_model(ws, keep)
+    phases = {"build": time.monotonic() - t0}
+    return _Run(ws, options, keep, cancel, t0, deadline, options.workers or os.cpu_count() or 1,
+                built, len(built.model.proto.constraints), phases)
+
+
+def _warm_start(run: _Run) -> Incumbent | None:
+    """Step 2: the search hinted with the workspace's roster (`_hint`), when asked."""
+    if not run.options.warm_start:
+        return None
+    t = time.monotonic()
+    incumbent = _hint(run.built, HINT_SHARE * run.left())
+    run.phases["hint"] = time.monotonic() - t
+    return incumbent
+
+
+def _first_roster(run: _Run, recorder: _Recorder) -> None:
+    """Step 3, with no roster to start from: a roster within seconds, however long the
+    bounds take (the LP of a 100-person unit may use its whole share), kept as the
+    best so far; neither a hint for the search nor a start for RINS (see
+    `_decompose_and_improve` and primal/portfolio.py)."""
+    recorder.report(0.0)  # something to show while the first roster is found
+    t = time.monotonic()
+    first = first_roster(run.built, t + FIRST_SHARE * run.left(), run.workers,
+                         run.options.seed, run.cancel)
+    if first is not None:
+        recorder.offer(first.values, first.objective, FIRST)
+    run.phases["first"] = time.monotonic() - t
+
+
+def _lp_bound(run: _Run, recorder: _Recorder) -> None:
+    """Step 4: the LP relaxation's bound, within its share, if it can be built in it.
+
+    Before the search, not beside it: a GLOP thread next to the CP-SAT workers cost
+    5-8 % of penalty on Curtois-Qu 10 and 12 at 60 s on 2 cores (seeds 1 and 2:
+    5051/5055 against 4843/4769 without, 4859/4762 with the LP first), while the LP
+    itself takes 0.1-1.5 s there (10.5 s on instance 12).
+    """
+    recorder.report(0.0)  # something to show while the LP is solved
+    t = time.monotonic()
+    share = run.options.lp_share * run.left()
+    if LP_BUILD_PER_CONSTRAINT * run.size < share:  # else building the LP alone overruns
+        relaxation = Relaxation(run.built.model)
+        rest = share - (time.monotonic() - t)
+        if rest > 0:
+            recorder.lp_bound = relaxation.solve(rest)
+    run.phases["lp"] = time.monotonic() - t
+    recorder.report(time.monotonic() - recorder.started)
+
+
+def _decompose_and_improve(run: _Run, recorder: _Recorder, incumbent: Incumbent | None
+                           ) -> tuple[Decomposition, cp_model.Constraint | None]:
+    """Step 5: the column-generation bound, the primal heuristics from it, the search's
+    hint, and the proven bound as the objective's floor (returned, to be lifted after
+    the search)."""
+    built, options = run.built, run.options
+    decomposition = _decompose(run.ws, built, options, recorder, run.left(), run.cancel)
+    run.phases["decompose"] = decomposition.seconds
+    # with no roster to start from, the converged master's rows are a good start
+    # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
+    # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
+    # 768 against 652 at 60 s)
+    if options.primal and decomposition.columns and not decomposition.stalled:
         t = time.monotonic()
-        first = first_roster(built, t + FIRST_SHARE * left(), workers, options.seed, cancel)
-        if first is not None:
-            recorder.offer(first.values, first.objective, FIRST)
-        phases["first"] = time.monotonic() - t
-    if options.lp_bound and keep is None:
-        recorder.report(0.0)  # something to show while the LP is solved
-        # Before the search, not beside it: a GLOP thread next to the CP-SAT workers
-        # cost 5-8 % of penalty on Curtois-Qu 10 and 12 at 60 s on 2 cores (seeds 1
-        # and 2: 5051/5055 against 4843/4769 without, 4859/4762 with the LP first),
-        # while the LP itself takes 0.1-1.5 s there (10.5 s on instance 12).
-        t = time.monotonic()
-        share = options.lp_share * left()
-        if LP_BUILD_PER_CONSTRAINT * size < share:  # else building the LP alone overruns
-            relaxation = Relaxation(built.model)
-            rest = share - (time.monotonic() - t)
-            if rest > 0:
-                recorder.lp_bound = relaxation.solve(rest)
-        phases["lp"] = time.monotonic() - t
-        recorder.report(time.monotonic() - started)
-    decomposition = None
-    floor = None  # the proven bound as the objective's floor, for the search only
-    if options.decompose and keep is None:
-        decomposition = _decompose(ws, built, options, recorder, left(), cancel)
-        phases["decompose"] = decomposition.seconds
-        # with no roster to start from, the converged master's rows are a good start
-        # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
-        # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
-        # 768 against 652 at 60 s)
-        if options.primal and decomposition.columns and not decomposition.stalled:
-            t = time.monotonic()
-            recorder.stage = "improve"
-            incumbent = improve(
-                built, decomposition, incumbent,
-                deadline=t + max(0.0, options.primal_share * left()),
-                pool_share=options.pool_share, workers=workers,
-                seed=options.seed, offer=recorder.offer, stop=recorder.should_stop,
-                cancel=cancel)
-            recorder.stage = "search"
-            phases["improve"] = time.monotonic() - t
-        # CP-SAT's first roster is kept (the recorder holds it) but not hinted: the
-        # search hinted with it did worse on the depot demo (438, 401 against 387 at
-        # 60 s, seeds 0-1) than from scratch
-        if incumbent is not None:
-            hint_solution(built.model, incumbent.solution)
-        elif decomposition.converged and not built.model.proto.solution_hint.vars:
-            built.cells.hint_rows(decomposition.heaviest())
-        if recorder.proven is not None and options.floor:  # need not prove the proven
-            floor = built.model.add(built.build.objective() >= recorder.proven)
+        recorder.stage = "improve"
+        incumbent = improve(
+            built, decomposition, incumbent,
+            deadline=t + max(0.0, options.primal_share * run.left()),
+            pool_share=options.pool_share, workers=run.workers,
+            seed=options.seed, offer=recorder.offer, stop=recorder.should_stop,
+            cancel=run.cancel)
+        recorder.stage = "search"
+        run.phases["improve"] = time.monotonic() - t
+    # CP-SAT's first roster is kept (the recorder holds it) but not hinted: the
+    # search hinted with it did worse on the depot demo (438, 401 against 387 at
+    # 60 s, seeds 0-1) than from scratch
+    if incumbent is not None:
+        hint_solution(built.model, incumbent.solution)
+    elif decomposition.converged and not built.model.proto.solution_hint.vars:
+        built.cells.hint_rows(decomposition.heaviest())
+    floor = None
+    if recorder.proven is not None and options.floor:  # need not prove the proven
+        floor = built.model.add(built.builder.objective() >= recorder.proven)
+    return decomposition, floor
+
+
+def _parameters(run: _Run, recorder: _Recorder) -> cp_model.CpSolver:
+    """Step 6: CP-SAT's parameters for the search: what is left of the time (never
+    less than MIN_SEARCH), workers, seed."""
+    options = run.options
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = max(
-        min(MIN_SEARCH, options.time_limit), left() - SEARCH_OVERHEAD_PER_CONSTRAINT * size)
-    solver.parameters.num_workers = workers
+        min(MIN_SEARCH, options.time_limit),
+        run.left() - SEARCH_OVERHEAD_PER_CONSTRAINT * run.size)
+    solver.parameters.num_workers = run.workers
     solver.parameters.random_seed = options.seed
     solver.parameters.log_search_progress = options.log
     # A fuller LP in the search. Single 30 s runs on Curtois-Qu 5, 6, 7, 10 looked
@@ -373,14 +464,23 @@ def solve(
     # either way. Kept because BENCHMARKS.md was measured with it.
     solver.parameters.linearization_level = 2
     solver.best_bound_callback = lambda bound: recorder.report(
-        time.monotonic() - started, round(bound))
+        time.monotonic() - recorder.started, round(bound))
+    return solver
+
+
+def _search(run: _Run, solver: cp_model.CpSolver, recorder: _Recorder,
+            floor: cp_model.Constraint | None
+            ) -> tuple[cp_model.CpSolverStatus, bool]:
+    """Step 7: the CP-SAT search (skipped when a roster already meets the proven
+    bound), stopped on cancel; the floor lifted after it. Returns CP-SAT's status and
+    whether it searched."""
     searched = not (recorder.best_objective is not None
                     and recorder.should_stop(recorder.best_objective))
     code = cp_model.FEASIBLE
     if searched:
-        stop_watch = _watch_cancel(solver, cancel, recorder)
+        stop_watch = _watch_cancel(solver, run.cancel, recorder)
         try:
-            code = solver.solve(built.model, recorder)
+            code = solver.solve(run.built.model, recorder)
         finally:
             if stop_watch is not None:
                 stop_watch.set()
@@ -388,57 +488,69 @@ def solve(
         domain = floor.proto.linear.domain
         domain.clear()
         domain.extend([cp_model.INT_MIN, cp_model.INT_MAX])
-    seconds = time.monotonic() - started
+    return code, searched
+
+
+STATUS: dict[cp_model.CpSolverStatus, SolveStatus] = {
+    cp_model.OPTIMAL: "optimal",
+    cp_model.FEASIBLE: "feasible",
+    cp_model.INFEASIBLE: "infeasible",
+    cp_model.MODEL_INVALID: "unknown",
+}
+
+
+def _outcome(run: _Run, recorder: _Recorder, code: cp_model.CpSolverStatus, searched: bool,
+             cp_bound: int, decomposition: Decomposition | None) -> SolveOutcome:
+    """The outcome of the search, before polish: status, times, each method's bound."""
+    seconds = time.monotonic() - recorder.started
+    phases = run.phases
     phases["search"] = seconds - sum(phases.get(k, 0.0)
                                      for k in ("first", "lp", "decompose", "improve"))
-    status = cast(SolveStatus, {
-        cp_model.OPTIMAL: "optimal",
-        cp_model.FEASIBLE: "feasible",
-        cp_model.INFEASIBLE: "infeasible",
-        cp_model.MODEL_INVALID: "unknown",
-    }.get(code, "unknown"))
-    cp_bound = round(solver.best_objective_bound) if searched else 0
-    outcome = SolveOutcome(status, None, None, None, seconds, options.seed,
-                           build_seconds=build_seconds, history=recorder.history,
-                           phases=phases, decomposition=decomposition,
-                           improvements=recorder.improvements, found_by=recorder.best_method)
+    outcome = SolveOutcome(STATUS.get(code, "unknown"), None, None, None, seconds,
+                           run.options.seed, build_seconds=phases["build"],
+                           history=recorder.history, phases=phases,
+                           decomposition=decomposition, improvements=recorder.improvements,
+                           found_by=recorder.best_method)
     outcome.bounds = {name: b for name, b in (
-        ("cp-sat", max(0, cp_bound) if recorder.best and searched and keep is None else None),
+        ("cp-sat", max(0, cp_bound) if recorder.best and searched and run.keep is None
+         else None),
         ("lp", recorder.lp_bound), ("decomposition", recorder.dw_bound)) if b is not None}
-    if recorder.best is None:
-        if status in ("optimal", "feasible"):
-            status = "unknown"
-        outcome.status = status
-        outcome.wall_seconds = time.monotonic() - t0
-        return outcome
+    return outcome
+
+
+def _polish_and_referee(run: _Run, recorder: _Recorder, outcome: SolveOutcome,
+                        cp_bound: int) -> None:
+    """Steps 8 and 9: the best roster's exact objective (`polish`), every bound checked
+    against it, and the checker's verdict (`referee`), into `outcome`."""
+    assert recorder.best is not None and recorder.best_objective is not None
+    built, keep = run.built, run.keep
     roster = roster_from(built, recorder.best)
     t = time.monotonic()
     total, changes = polish(built, recorder.best)
-    phases["polish"] = time.monotonic() - t
+    run.phases["polish"] = time.monotonic() - t
     bound = max(cp_bound, recorder.proven or 0)
     for name in ("lp", "decomposition"):  # a bound is a promise: never above a roster
         if name in outcome.bounds and total - built.change_cost(changes) < outcome.bounds[name]:
             raise RefereeError(f"the {name} bound {outcome.bounds[name]} lies above the "
                                f"penalty {total} of a roster: the bound is wrong")
     if total <= bound:
-        status = outcome.status = "optimal"
+        outcome.status = "optimal"
     cost = built.change_cost(changes)
     objective, bound = total - cost, max(0, bound - cost)
     if keep is not None:
         outcome.changes = changes
-    roster.solve = SolveRecord(status=status, objective=objective, bound=min(bound, objective),
-                               seconds=round(seconds, 3), seed=options.seed)
+    roster.solve = SolveRecord(status=outcome.status, objective=objective,
+                               bound=min(bound, objective), seconds=round(outcome.seconds, 3),
+                               seed=run.options.seed)
     outcome.roster, outcome.objective, outcome.bound = roster, objective, min(bound, objective)
     outcome.first_seconds, outcome.best_seconds = recorder.first_seconds, recorder.best_seconds
-    past = ws.unit.start + timedelta(days=keep.frozen) if keep is not None else None
+    past = run.ws.unit.start + timedelta(days=keep.frozen) if keep is not None else None
     t = time.monotonic()
-    outcome.check = referee(ws, roster, objective, past_before=past)
-    phases["referee"] = time.monotonic() - t
-    outcome.wall_seconds = time.monotonic() - t0
-    return outcome
+    outcome.check = referee(run.ws, roster, objective, past_before=past)
+    run.phases["referee"] = time.monotonic() - t
 
 
-def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Recorder,
+def _decompose(ws: Workspace, built: BuiltModel, options: SolveOptions, recorder: _Recorder,
                budget: float, cancel: threading.Event | None) -> Decomposition:
     """Column generation for at most its share of the `budget` seconds left, its bound
     shown as it rises."""
@@ -464,7 +576,7 @@ def _decompose(ws: Workspace, built: Built, options: SolveOptions, recorder: _Re
         recorder.report(time.monotonic() - recorder.started)
 
 
-def polish(built: Built, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
+def polish(built: BuiltModel, values: dict[tuple[int, int, str], int]) -> tuple[int, int]:
     """The exact objective of a found roster under the model: fix every cell, minimise.
 
     Penalty variables are only bounded from below during the search (logic.py);
@@ -516,11 +628,11 @@ def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None,
 
     def watch() -> None:
         while not done.is_set():
-            if cancel.wait(0.1):
+            if cancel.wait(CANCEL_POLL):
                 if recorder.best is not None:
                     solver.stop_search()
                     return
-                done.wait(0.1)
+                done.wait(CANCEL_POLL)
 
     threading.Thread(target=watch, daemon=True, name="rostertui-cancel").start()
     return done

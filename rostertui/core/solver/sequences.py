@@ -5,14 +5,19 @@ The pair (last history day, first period day) is judged too.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from rostertui.core.models.common import OFF
 from rostertui.core.models.rules import ForbiddenSequence
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.logic import Lit, any_of, breach, forbid, negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
+
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
 
-def add_forbidden_sequence(b: Build, eff: EffectiveRule) -> None:
+def forbidden_sequence(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
     assert isinstance(rule, ForbiddenSequence)
     cells, ws = b.cells, b.cells.ws

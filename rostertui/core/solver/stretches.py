@@ -11,6 +11,7 @@ rules: days short, for each closed stretch (every stretch with edges = "closed")
 from __future__ import annotations
 
 from collections.abc import Callable
+from typing import TYPE_CHECKING
 
 from rostertui.core.models.common import OFF
 from rostertui.core.models.rules import (
@@ -21,12 +22,15 @@ from rostertui.core.models.rules import (
 )
 from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.logic import Lit, breach, forbid, negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
+
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
 Member = Callable[[int, int], Lit]  # (person index, day index) -> literal
 
 
-def _member(b: Build, eff: EffectiveRule) -> Member:
+def _member(b: ModelBuilder, eff: EffectiveRule) -> Member:
     cells, rule = b.cells, eff.rule
     if isinstance(rule, MaxConsecutiveShift):
         codes = frozenset(cells.ws.select(rule.shift))
@@ -36,13 +40,29 @@ def _member(b: Build, eff: EffectiveRule) -> Member:
     return cells.works
 
 
-def _off(b: Build, p: int, d: int) -> Lit:
+def _off(b: ModelBuilder, p: int, d: int) -> Lit:
     if d < 0:
         return b.cells.history_code(p, d) == OFF
     return negate(b.cells.works(p, d))
 
 
-def add_max_stretch(b: Build, eff: EffectiveRule) -> None:
+def max_consecutive_days(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    _max_stretch(b, eff)
+
+
+def max_consecutive_shift(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    _max_stretch(b, eff)
+
+
+def min_consecutive_days(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    _min_stretch(b, eff)
+
+
+def min_consecutive_off(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
+    _min_stretch(b, eff)
+
+
+def _max_stretch(b: ModelBuilder, eff: EffectiveRule) -> None:
     rule = eff.rule
     assert isinstance(rule, MaxConsecutiveDays | MaxConsecutiveShift)
     limit = rule.days if isinstance(rule, MaxConsecutiveDays) else rule.count
@@ -61,7 +81,7 @@ def add_max_stretch(b: Build, eff: EffectiveRule) -> None:
                 b.add(rule.id, rule.kind, pid, dates, rule.weight, breach(b.model, window))
 
 
-def add_min_stretch(b: Build, eff: EffectiveRule) -> None:
+def _min_stretch(b: ModelBuilder, eff: EffectiveRule) -> None:
     rule = eff.rule
     assert isinstance(rule, MinConsecutiveDays | MinConsecutiveOff)
     member = _member(b, eff)

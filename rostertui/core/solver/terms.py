@@ -24,7 +24,7 @@ class Term:
 
 
 @dataclass
-class Build:
+class ModelBuilder:
     """Everything a rule family needs: the model, the cells, and where terms go."""
 
     model: cp_model.CpModel

@@ -5,6 +5,8 @@ Weekends are maximal runs of weekend days and holidays inside the period.
 
 from __future__ import annotations
 
+from typing import TYPE_CHECKING
+
 from ortools.sat.python import cp_model
 
 from rostertui.core.models.common import WEEKDAYS
@@ -13,7 +15,10 @@ from rostertui.core.models.workspace import EffectiveRule
 from rostertui.core.solver.cells import Cells
 from rostertui.core.solver.counts import deviation
 from rostertui.core.solver.logic import Lit, any_of, bool_sum, forbid, negate
-from rostertui.core.solver.terms import Build
+from rostertui.core.solver.terms import ModelBuilder
+
+if TYPE_CHECKING:
+    from rostertui.core.solver.shared import Shared
 
 
 def weekends(cells: Cells) -> list[tuple[int, int]]:
@@ -38,7 +43,7 @@ def weekends(cells: Cells) -> list[tuple[int, int]]:
 class WeekendsWorked:
     """One literal per (person, weekend): worked on any of its days (shared by rules)."""
 
-    def __init__(self, b: Build):
+    def __init__(self, b: ModelBuilder):
         self.b = b
         self.spans = weekends(b.cells)
         self._lits: dict[tuple[int, int], Lit] = {}
@@ -56,16 +61,18 @@ class WeekendsWorked:
         return (sum(vars_) + const if vars_ else const), const, const + len(vars_)
 
 
-def add_max_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
+def max_weekends(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
+    ww = shared.weekends
     assert isinstance(rule, MaxWeekends)
     for pid in eff.people:
         expr, lo, hi = ww.count(b.cells.pindex[pid])
         deviation(b, eff, pid, expr - rule.count, lo - rule.count, hi - rule.count, 1)
 
 
-def add_complete_weekends(b: Build, eff: EffectiveRule, ww: WeekendsWorked) -> None:
+def complete_weekends(b: ModelBuilder, eff: EffectiveRule, shared: Shared) -> None:
     rule = eff.rule
+    ww = shared.weekends
     assert isinstance(rule, CompleteWeekends)
     cells = b.cells
     for pid in eff.people:

@@ -113,19 +113,3 @@ def test_max_consecutive_shift_night_selector_with_history(check) -> None:
         1, (date(2027, 2, 27), date(2027, 3, 2)), "4 N shifts in a row; at most 3"
     )
     assert (v2.units, v2.penalty) == (1, 7)
-
-
-def test_forbidden_sequence_includes_history_pair_and_off(check) -> None:
-    rule = (
-        '[[rule]]\nid = "no-n-e"\nkind = "forbidden-sequence"\nfirst = "N"\n'
-        'then = ["E", "D"]\n\n[[rule]]\nid = "no-l-off"\nkind = "forbidden-sequence"\n'
-        'first = "L"\nthen = ["-"]\nweight = 2\n'
-    )
-    r = check(rows={"a": "E N D L - N"}, history={"a": "N N"}, rules=rule)
-    found = [(v.rule, v.dates, v.units, v.penalty) for v in of_kind(r, "forbidden-sequence")]
-    assert found == [
-        ("no-n-e", (date(2027, 2, 28), date(2027, 3, 1)), 1, 0),
-        ("no-n-e", (date(2027, 3, 2), date(2027, 3, 3)), 1, 0),
-        ("no-l-off", (date(2027, 3, 4), date(2027, 3, 5)), 1, 2),
-    ]
-    assert of_kind(r, "forbidden-sequence")[0].message == "N on 28 Feb followed by E"

@@ -85,7 +85,7 @@ def test_hour_values_are_rounded_to_a_hundredth_at_load(tmp_path: Path) -> None:
 
 
 def test_the_solver_takes_hour_values_that_needed_a_huge_scale(good_ws: Path) -> None:
-    """Failed before: ValueError 'hour values need a finer scale' from solver/hours.py."""
+    """Failed before: ValueError 'hour values need a finer scale' from solver/scaled_hours.py."""
     from rostertui.core.check.run import check_roster
     from rostertui.core.solver.run import SolveOptions, solve
 

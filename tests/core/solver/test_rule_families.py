@@ -1,7 +1,9 @@
 """Each rule family's model: optimal penalties worked out by hand, on tiny units.
 
 Every solve below also passes the referee inside `solve()`: the checker's penalty
-of the returned roster equals the objective and it finds no hard violation.
+of the returned roster equals the objective and it finds no hard violation. Every
+rule kind has at least one test here named `test_<kind with _>_...`
+(tests/core/test_kinds.py checks it).
 """
 
 from __future__ import annotations
@@ -55,6 +57,80 @@ def test_max_consecutive_days_counts_history_but_charges_only_period_days(
     out = solve_ws(["a"], 2, shifts=E_ONLY, cover=cover("E", min=1), rules=rules,
                    history={"a": "E E E E E"})
     assert out.objective == 2 * 7  # a stretch of 7 days, 4 over, only 2 inside the period
+
+
+EL = E_ONLY + '[[shift]]\ncode = "L"\nname = "Late"\nstart = "14:00"\nend = "22:00"\n'
+
+
+def test_max_consecutive_shift_skips_one_late_rather_than_run_over(solve_ws: Solve) -> None:
+    """One person, 4 days, a late wanted every day (2 per day short), at most 2 lates in
+    a row (5 per day over). L L L L: a run of 4, 2 over -> 10. Skipping one late in the
+    middle (L L E L, L L - L, L - L L, ...) leaves runs of at most 2 -> one day short, 2.
+    Skipping two costs 4. The optimum is 2, with three lates."""
+    rules = '[[rule]]\nid = "ll"\nkind = "max-consecutive-shift"\nshift = "L"\ncount = 2\n'
+    out = solve_ws(["a"], 4, shifts=EL, cover=cover("L", ideal=1, under=2),
+                   rules=rules + "weight = 5\n")
+    assert (out.status, out.objective) == ("optimal", 2)
+    assert out.roster.rows["a"].count("L") == 3
+    # hard, the same: the run of four is ruled out, one late is still skipped
+    assert solve_ws(["a"], 4, shifts=EL, cover=cover("L", ideal=1, under=2),
+                    rules=rules).objective == 2
+
+
+def test_min_consecutive_off_charges_a_lone_day_off_between_shifts(solve_ws: Solve) -> None:
+    """One person, 7 days (Mon 1 - Sun 7 March 2027), earlies needed on 1, 2, 3, 5, 6
+    and at most 5 shifts (hard): days 4 and 7 are off. Day 4 is a closed stretch of one
+    day off, 1 short of 2 -> 4. Day 7 touches the period end: open, exempt with the
+    default edges; with edges = "closed" it is 1 short too -> 8."""
+    days = ["2027-03-01", "2027-03-02", "2027-03-03", "2027-03-05", "2027-03-06"]
+    cap = '[[rule]]\nid = "cap"\nkind = "max-shifts"\ncount = 5\n'
+    rule = '[[rule]]\nid = "off2"\nkind = "min-consecutive-off"\ndays = 2\nweight = 4\n'
+    out = solve_ws(["a"], 7, shifts=E_ONLY, cover=cover("E", min=1, dates=days),
+                   rules=rule + cap)
+    assert (out.status, out.objective) == ("optimal", 4)
+    assert out.roster.rows["a"] == ["E", "E", "E", "-", "E", "E", "-"]
+    closed = rule.replace("weight = 4", 'edges = "closed"\nweight = 4')
+    assert solve_ws(["a"], 7, shifts=E_ONLY, cover=cover("E", min=1, dates=days),
+                    rules=closed + cap).objective == 8
+
+
+def test_min_shifts_three_earlies_for_two_people_who_each_want_two(solve_ws: Solve) -> None:
+    """Two people, 3 days, at most one early a day (hard): 3 earlies in all, each person
+    should have 2 (3 per shift short). 2 + 1: one short -> 3; 3 + 0: two short -> 6.
+    The optimum is 3; as a hard rule (4 earlies needed, 3 possible) it is infeasible."""
+    one_a_day = '[[cover]]\nshift = "E"\nmax = 1\n'
+    rule = '[[rule]]\nid = "least"\nkind = "min-shifts"\ncount = 2\n'
+    out = solve_ws(["a", "b"], 3, shifts=E_ONLY, cover=one_a_day, rules=rule + "weight = 3\n")
+    assert (out.status, out.objective) == ("optimal", 3)
+    assert sorted(row.count("E") for row in out.roster.rows.values()) == [1, 2]
+    assert solve_ws(["a", "b"], 3, shifts=E_ONLY, cover=one_a_day,
+                    rules=rule).status == "infeasible"
+
+
+def test_max_shifts_soft_weighs_shifts_over_against_cover_short(solve_ws: Solve) -> None:
+    """One person, 4 days, an early wanted every day (2 per day short), at most 2 shifts
+    (5 per shift over). 4 shifts: 2 over -> 10; 3: 5 + 2 -> 7; 2: two days short -> 4;
+    fewer costs more. The optimum is 4, with two earlies."""
+    rule = '[[rule]]\nid = "most"\nkind = "max-shifts"\ncount = 2\nweight = 5\n'
+    out = solve_ws(["a"], 4, shifts=E_ONLY, cover=cover("E", ideal=1, under=2), rules=rule)
+    assert (out.status, out.objective) == ("optimal", 4)
+    assert out.roster.rows["a"].count("E") == 2
+
+
+def test_hours_at_least_rounds_the_shortfall_up(solve_ws: Solve) -> None:
+    """`min` (at least): 7.6 h shifts, at least 20 h, at most 2 shifts (hard): 15.2 h,
+    4.8 h short, rounded up to 5 units -> 5 x 2 = 10. Without the cap three shifts
+    (22.8 h) meet it: 0, and so does the hard rule."""
+    shifts = E_ONLY + "paid_hours = 7.6\n"
+    rule = '[[rule]]\nid = "h"\nkind = "hours"\nmin = 20\n'
+    cap = '[[rule]]\nid = "cap"\nkind = "max-shifts"\ncount = 2\n'
+    out = solve_ws(["a"], 5, shifts=shifts, rules=rule + "weight = 2\n" + cap)
+    assert (out.status, out.objective) == ("optimal", 5 * 2)
+    assert out.roster.rows["a"].count("E") == 2
+    hard = solve_ws(["a"], 5, shifts=shifts, rules=rule)
+    assert (hard.status, hard.objective) == ("optimal", 0)
+    assert hard.roster.rows["a"].count("E") >= 3
+    assert solve_ws(["a"], 5, shifts=shifts, rules=rule + cap).status == "infeasible"
 
 
 def test_min_rest_between_late_and_early(solve_ws: Solve) -> None:

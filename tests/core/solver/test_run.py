@@ -1,4 +1,7 @@
-"""Running the solver: progress, cancel keeping the best roster, warm start, the referee."""
+"""Running the solver: progress, cancel keeping the best roster, warm start, the referee.
+
+Behaviour only: how fast a cancel takes effect is for bench/, not for assertions
+here (a loaded machine would fail them)."""
 
 from __future__ import annotations
 
@@ -39,9 +42,9 @@ def test_cancel_keeps_the_best_roster_so_far() -> None:
         if p.penalty is not None:
             cancel.set()
 
-    out = solve(ws, SolveOptions(time_limit=120, workers=2, decompose=False),
-                on_progress=first_roster_then_cancel, cancel=cancel)
-    assert out.seconds < 60
+    options = SolveOptions(time_limit=120, workers=2, decompose=False)
+    out = solve(ws, options, on_progress=first_roster_then_cancel, cancel=cancel)
+    assert out.wall_seconds < options.time_limit  # stopped by the cancel, not the limit
     assert out.roster is not None and out.status in ("feasible", "optimal")
     assert check_roster(ws, out.roster).compliant
 
@@ -54,10 +57,13 @@ def test_cancel_while_the_bound_is_proved_keeps_the_first_roster() -> None:
         if p.stage == "bound" and p.elapsed > 1.0:
             cancel.set()
 
-    out = solve(ws, SolveOptions(time_limit=120, workers=2),
-                on_progress=cancel_while_bounding, cancel=cancel)
-    assert cancel.is_set() and out.seconds < 30
-    assert out.decomposition is not None and out.decomposition.seconds < 10
+    options = SolveOptions(time_limit=120, workers=2)
+    out = solve(ws, options, on_progress=cancel_while_bounding, cancel=cancel)
+    assert cancel.is_set()
+    assert out.wall_seconds < options.time_limit  # stopped by the cancel, not the limit
+    # column generation was cut short by the cancel: neither converged nor given up
+    assert out.decomposition is not None
+    assert not out.decomposition.converged and not out.decomposition.stalled
     assert out.roster is not None and check_roster(ws, out.roster).compliant
 
 

@@ -33,13 +33,13 @@ def slow_build(monkeypatch: pytest.MonkeyPatch) -> dict[str, list[float]]:
     are recorded."""
     seen: dict[str, list[float]] = {"hint": [], "lp": []}
 
-    def slow(*args: object, **kwargs: object) -> run.Built:
+    def slow(*args: object, **kwargs: object) -> run.BuiltModel:
         time.sleep(SLOW_BUILD)
         return build_model(*args, **kwargs)  # type: ignore[arg-type]
 
     real_hint, real_relaxation = run._hint, run.Relaxation
 
-    def hint(built: run.Built, budget: float):  # noqa: ANN202
+    def hint(built: run.BuiltModel, budget: float):  # noqa: ANN202
         seen["hint"].append(budget)
         return real_hint(built, budget)
 

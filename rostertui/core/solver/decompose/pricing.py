@@ -23,7 +23,7 @@ from rostertui.core.models.common import OFF
 from rostertui.core.models.rules import Balance
 from rostertui.core.models.workspace import EffectiveRule, Workspace
 from rostertui.core.solver.balance import metric_of
-from rostertui.core.solver.model import Built, build_model
+from rostertui.core.solver.model import BuiltModel, build_model
 
 
 def floor_safely(value: float) -> int:
@@ -95,8 +95,8 @@ class PersonModel:
     def __init__(self, ws: Workspace, pid: str, balances: list[EffectiveRule]):
         self.pid = pid
         self.ws = one_person(ws, pid)
-        self.built: Built = build_model(self.ws)
-        self.own = self.built.build.objective()
+        self.built: BuiltModel = build_model(self.ws)
+        self.own = self.built.builder.objective()
         self.n = self.built.cells.n
         self.codes = self.built.cells.codes
         self.metrics: list[Metric] = []
@@ -106,7 +106,7 @@ class PersonModel:
             if pid not in eff.people:
                 continue
             metric = eff.rule.metric  # type: ignore[union-attr]
-            expr, lo, hi = metric_of(built.build, metric, 0, built.hours, built.weekends)
+            expr, lo, hi = metric_of(built.builder, metric, 0, built.hours, built.weekends)
             divisor = built.hours.scale if metric == "hours" else 1
             self.metrics.append(Metric(k, expr, divisor, Fraction(lo, divisor),
                                        Fraction(hi, divisor)))

@@ -15,13 +15,13 @@ import time
 from ortools.sat.python import cp_model
 
 from rostertui.core.solver.fixing import evaluate
-from rostertui.core.solver.model import Built
+from rostertui.core.solver.model import BuiltModel
 from rostertui.core.solver.primal.portfolio import EVALUATE_CAP
 from rostertui.core.solver.primal.rins import Incumbent
 from rostertui.core.solver.primal.watch import stop_on_cancel
 
 
-def first_roster(built: Built, deadline: float, workers: int, seed: int,
+def first_roster(built: BuiltModel, deadline: float, workers: int, seed: int,
                  cancel: threading.Event | None = None) -> Incumbent | None:
     """CP-SAT's first roster keeping every hard rule, by `deadline` (time.monotonic()),
     with its exact objective; None when none is found in time (or none exists)."""

@@ -8,7 +8,7 @@ from collections.abc import Callable
 
 from rostertui.core.solver.decompose import Decomposition
 from rostertui.core.solver.fixing import Values, evaluate, values_of
-from rostertui.core.solver.model import Built
+from rostertui.core.solver.model import BuiltModel
 from rostertui.core.solver.primal import rins
 from rostertui.core.solver.primal.pool import Rows, integer_master
 from rostertui.core.solver.primal.rins import Incumbent
@@ -23,7 +23,7 @@ ARTIFICIAL = 1e-7  # master artificial use treated as none
 Offer = Callable[[Values, int, str], None]  # a better roster, its objective, the method
 
 
-def improve(built: Built, dw: Decomposition, start: Incumbent | None, *, deadline: float,
+def improve(built: BuiltModel, dw: Decomposition, start: Incumbent | None, *, deadline: float,
             pool_share: float, workers: int, seed: int, offer: Offer,
             stop: Callable[[int], bool], cancel: threading.Event | None = None
             ) -> Incumbent | None:

@@ -31,7 +31,7 @@ from ortools.sat.python import cp_model
 
 from rostertui.core.solver.decompose import Decomposition
 from rostertui.core.solver.fixing import Values, fixed_copy, hint_solution, rows_of
-from rostertui.core.solver.model import Built
+from rostertui.core.solver.model import BuiltModel
 from rostertui.core.solver.primal.watch import stop_on_cancel
 
 AGREE = 1.0 - 1e-6  # an LP weight this close to 1 counts as integral
@@ -59,7 +59,7 @@ def marginals(dw: Decomposition) -> dict[tuple[int, int], dict[str, float]]:
     return found
 
 
-def disagreement(built: Built, values: Values,
+def disagreement(built: BuiltModel, values: Values,
                  lp: dict[tuple[int, int], dict[str, float]]) -> set[tuple[int, int]]:
     """The cells where the incumbent's code does not have LP weight 1."""
     rows = rows_of(built, values)
@@ -74,7 +74,7 @@ def fractional_people(dw: Decomposition) -> list[int]:
 
 
 class _Better(cp_model.CpSolverSolutionCallback):
-    def __init__(self, built: Built, below: int, on_better: Callable[[Values, int], None],
+    def __init__(self, built: BuiltModel, below: int, on_better: Callable[[Values, int], None],
                  stop: Callable[[int], bool]):
         super().__init__()
         self.built, self.below, self.on_better, self.stop = built, below, on_better, stop
@@ -89,7 +89,7 @@ class _Better(cp_model.CpSolverSolutionCallback):
             self.stop_search()
 
 
-def search(built: Built, dw: Decomposition, start: Incumbent, deadline: float, workers: int,
+def search(built: BuiltModel, dw: Decomposition, start: Incumbent, deadline: float, workers: int,
            seed: int, on_better: Callable[[Values, int], None],
            stop: Callable[[int], bool], cancel: threading.Event | None = None) -> Incumbent:
     """Neighbourhoods around the incumbent until `deadline` (time.monotonic()) or
