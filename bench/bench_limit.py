@@ -98,6 +98,7 @@ def phases(folder: Path, limit: float, workers: int) -> None:
 
     from rostertui.core.io.save import save
     from rostertui.core.solver import run
+    from rostertui.core.solver.fixing import fixed_copy
     from rostertui.core.solver.lp_bound import Relaxation
     from rostertui.core.solver.model import build_model, estimate_build
 
@@ -122,7 +123,7 @@ def phases(folder: Path, limit: float, workers: int) -> None:
     timed("hint (completion, 10 s cap)", run._hint, plain, 10.0)
     full = len(plain.model.proto.solution_hint.vars) == len(proto.variables)
     print(f"  (hint {'complete' if full else 'cells only: the roster breaks a hard rule'})")
-    timed("fix every cell (clone + domains)", run._fixed, built, values)
+    timed("fix every cell (clone + domains)", fixed_copy, built, values)
     timed("LP relaxation built", Relaxation, built.model)
     solver = cp_model.CpSolver()
     solver.parameters.max_time_in_seconds = limit

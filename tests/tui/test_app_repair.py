@@ -29,7 +29,8 @@ from tests.tui.pilot import cell_segment, grid_of, status_text
 @pytest.fixture(scope="module")
 def solved_rows(tmp_path_factory) -> dict[str, list[str]]:
     """A roster for the clinic demo with no hard violation (one short solve per module)."""
-    from rostertui.core.solver.run import SolveOptions, solve
+    from rostertui.core.solver.outcome import SolveOptions
+    from rostertui.core.solver.run import solve
     from tests.conftest import DEMO, copy_ws
 
     ws = load_workspace(copy_ws(DEMO / "clinic", tmp_path_factory.mktemp("solve")))

@@ -4,7 +4,7 @@ from __future__ import annotations
 
 import threading
 
-from rostertui.core.solver.run import SolveProgress
+from rostertui.core.solver.outcome import SolveProgress
 from rostertui.tui.messages import ProgressRelay, SolveProgressed
 from rostertui.tui.widgets.bars import BarColours, bar, hours_bar, range_bar
 

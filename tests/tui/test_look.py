@@ -1,6 +1,6 @@
 """The look comes from the theme: no colour literal in the UI's Python; with a dark and a
-light theme at 80x24 the grid's symbols still tell hard, soft, leave, request and lock
-apart without colour; a theme switch repaints the grid."""
+light theme (and the 16 ANSI colours) at 80x24 the grid's symbols still tell hard, soft,
+leave, request and lock apart without colour; a theme switch repaints the grid."""
 
 from __future__ import annotations
 
@@ -44,7 +44,8 @@ def cell(grid: RosterGrid, pid: str, day: int) -> list[str]:
     return [s.text.strip() for s in row]
 
 
-@pytest.mark.parametrize("theme", ["textual-dark", "textual-light"])
+# ansi-dark: Textual's theme of the 16 ANSI colours, for a 16-colour terminal
+@pytest.mark.parametrize("theme", ["textual-dark", "textual-light", "ansi-dark"])
 def test_symbols_tell_the_states_apart_in_either_theme(clinic: Path, theme: str) -> None:
     shutil.copyfile(FIXTURES / "clinic_solved_roster.toml", clinic / "roster.toml")
 

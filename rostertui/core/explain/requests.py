@@ -27,7 +27,8 @@ from rostertui.core.repair.diff import CellDiff, roster_diff
 from rostertui.core.repair.impact import impact
 from rostertui.core.repair.rows import full_rows
 from rostertui.core.solver.keep import Keep
-from rostertui.core.solver.run import SolveOptions, solve
+from rostertui.core.solver.outcome import SolveOptions
+from rostertui.core.solver.run import solve
 
 
 @dataclass(frozen=True)

@@ -22,7 +22,7 @@ from rostertui.core.explain.reasons import Reason
 from rostertui.core.explain.requests import RequestCost, denied, price
 from rostertui.core.explain.sentences import conflict_reason
 from rostertui.core.models.workspace import Workspace
-from rostertui.core.solver.run import SolveOptions
+from rostertui.core.solver.outcome import SolveOptions
 
 Progress = Callable[[str], None]
 

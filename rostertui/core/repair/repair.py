@@ -23,7 +23,8 @@ from rostertui.core.repair.fixes import ChangedCell, attribute
 from rostertui.core.repair.impact import impact
 from rostertui.core.repair.rows import normalised
 from rostertui.core.solver.keep import Keep
-from rostertui.core.solver.run import ProgressCallback, SolveOptions, SolveOutcome, solve
+from rostertui.core.solver.outcome import ProgressCallback, SolveOptions, SolveOutcome
+from rostertui.core.solver.run import solve
 
 
 @dataclass

@@ -24,6 +24,7 @@ and the bounds: lp_bound.py (the LP relaxation of the model, GLOP) and decompose
 (Dantzig-Wolfe decomposition by column generation, one pricing model per person).
 """
 
-from rostertui.core.solver.run import SolveOptions, SolveOutcome, SolveProgress, solve
+from rostertui.core.solver.outcome import SolveOptions, SolveOutcome, SolveProgress
+from rostertui.core.solver.run import solve
 
 __all__ = ["SolveOptions", "SolveOutcome", "SolveProgress", "solve"]

@@ -24,103 +24,32 @@ from __future__ import annotations
 import os
 import threading
 import time
-from collections.abc import Callable
-from dataclasses import dataclass, field
+from dataclasses import dataclass
 from datetime import date, timedelta
 
 from ortools.sat.python import cp_model
 
 from rostertui.core.check import CheckResult, check_roster
-from rostertui.core.errors import RosterError
 from rostertui.core.models.common import OFF
 from rostertui.core.models.roster import Roster, SolveRecord, SolveStatus
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver.decompose import Decomposition, DecompositionProgress, decompose
 from rostertui.core.solver.decompose.loop import Checkpoint
-from rostertui.core.solver.fixing import Values, evaluate, fixed_copy, hint_solution, values_of
+from rostertui.core.solver.fixing import evaluate, fixed_copy, hint_solution, values_of
 from rostertui.core.solver.keep import Keep
 from rostertui.core.solver.lp_bound import Relaxation
 from rostertui.core.solver.model import BuiltModel, build_model
+from rostertui.core.solver.outcome import (
+    ProgressCallback,
+    RefereeError,
+    SolveOptions,
+    SolveOutcome,
+)
 from rostertui.core.solver.primal import Incumbent, improve
 from rostertui.core.solver.primal.first import first_roster
 from rostertui.core.solver.primal.portfolio import FIRST
+from rostertui.core.solver.recorder import Recorder, watch_cancel
 
-# The default limit of a solve: the command line's --time-limit default (cli/args.py),
-# so a caller of the library gets what `rostertui solve` does.
-DEFAULT_TIME_LIMIT = 60.0
-
-
-class RefereeError(RosterError):
-    """The checker disagrees with the solver about a roster: a bug in one of them."""
-
-
-@dataclass(frozen=True)
-class SolveOptions:
-    time_limit: float = DEFAULT_TIME_LIMIT
-    workers: int = 0  # 0 = every core
-    seed: int = 0
-    warm_start: bool = True  # hint the search with the workspace's current roster
-    lp_bound: bool = True  # a bound from the LP relaxation (GLOP), solved before the search
-    lp_share: float = 0.2  # at most this share of the time left (after build and hint) for the LP
-    decompose: bool = True  # a bound by column generation (decompose/), before the search
-    decompose_share: float = 0.3  # at most this share of the time left for it
-    # the primal heuristics from the decomposition (primal/), after it and before the
-    # CP-SAT search: this share of the time then left, the integer master over the pool
-    # taking `pool_share` of that, RINS the rest
-    primal: bool = True
-    floor: bool = True  # the proven bound as the objective's lower end in the search
-    primal_share: float = 0.5
-    pool_share: float = 0.3
-    log: bool = False
-    # time.monotonic() by which the whole solve should be over (build, hint, LP, search,
-    # polish, referee); None: time_limit from the call. A caller passes its own start +
-    # time_limit so that its loading counts too.
-    deadline: float | None = None
-
-
-@dataclass(frozen=True)
-class SolveProgress:
-    elapsed: float
-    penalty: int | None  # best roster found so far (None before the first)
-    bound: int  # proven lower bound on the penalty
-    changes: int | None = None  # repair: cells the best roster changes
-    stage: str = "search"  # or "bound": column generation is proving the bound
-    found_by: str | None = None  # the method that found the best roster so far
-
-
-@dataclass
-class SolveOutcome:
-    status: SolveStatus
-    roster: Roster | None
-    objective: int | None
-    bound: int | None
-    seconds: float
-    seed: int
-    check: CheckResult | None = None
-    build_seconds: float = 0.0
-    first_seconds: float | None = None  # time to the first roster
-    best_seconds: float | None = None  # time to the best roster
-    history: list[SolveProgress] = field(default_factory=list)
-    changes: int | None = None  # repair: cells changed from the reference roster
-    wall_seconds: float = 0.0  # the whole solve(): build, hint, LP, search, polish, referee
-    phases: dict[str, float] = field(default_factory=dict)  # seconds each phase took
-    bounds: dict[str, int] = field(default_factory=dict)  # each method's proven bound
-    decomposition: Decomposition | None = None  # the column generation's result
-    # every better roster on the way: (seconds into the search, penalty, method)
-    improvements: list[tuple[float, int, str]] = field(default_factory=list)
-    found_by: str | None = None  # the method that found the roster returned
-
-    @property
-    def gap(self) -> float | None:
-        if self.objective is None or self.bound is None:
-            return None
-        if self.objective == 0:
-            return 0.0
-        return max(0.0, (self.objective - self.bound) / abs(self.objective))
-
-
-ProgressCallback = Callable[[SolveProgress], None]
-SEARCH = "CP-SAT search"  # the method name of rosters the main search finds
 WARM_START = "warm start"  # the workspace's own roster
 
 # -- the time budget --------------------------------------------------------------------
@@ -142,9 +71,6 @@ HINT_MIN = 0.1
 # takes 1.1 s at 2014 people; 60 s is over 50 times that, and running out raises
 # RefereeError instead of hanging.
 POLISH_CAP = 60.0
-# How often the cancel watcher looks between solutions: a cancel stops the search
-# within about this long, well within the second a user waits for after Esc.
-CANCEL_POLL = 0.1
 # Costs that grow with the built model, in seconds per constraint of its proto,
 # measured by `bench/bench_limit.py --phases` on 2014 people x 28 days (1.02 M
 # constraints, 0.50 M variables) on the development machine (x86_64, 2 cores,
@@ -159,95 +85,6 @@ SEARCH_OVERHEAD_PER_CONSTRAINT = 1.0e-6
 # After the search: polish 1.05 s, the referee's check 0.1-0.24 s, the CLI's save
 # 0.2 s; kept back from CP-SAT's time, with a third to spare.
 FINISH_PER_CONSTRAINT = 2.0e-6
-
-
-class _Recorder(cp_model.CpSolverSolutionCallback):
-    """Records each improving roster; prints nothing; stops the search on cancel."""
-
-    def __init__(self, built: BuiltModel, started: float, on_progress: ProgressCallback | None,
-                 cancel: threading.Event | None):
-        super().__init__()
-        self.built = built
-        self.started = started
-        self.on_progress = on_progress
-        self.cancel = cancel
-        self.best: dict[tuple[int, int, str], int] | None = None
-        self.best_objective: int | None = None  # penalty + change cost (repair)
-        self.best_changes = 0
-        self.first_seconds: float | None = None
-        self.best_seconds: float | None = None
-        self.history: list[SolveProgress] = []
-        self.lp_bound: int | None = None
-        self.dw_bound: int | None = None  # the decomposition's
-        self.cp_bound = 0
-        self.stage = "search"
-        self.lock = threading.Lock()
-        self.best_method: str | None = None
-        self.improvements: list[tuple[float, int, str]] = []
-
-    def on_solution_callback(self) -> None:
-        elapsed = time.monotonic() - self.started
-        objective = round(self.objective_value)
-        if self.best_objective is None or objective <= self.best_objective:
-            if self.best_objective is None or objective < self.best_objective:
-                self._improved(elapsed, objective, SEARCH)
-            self.best = {key: self.value(var) for key, var in self.built.cells.x.items()}
-            self.best_objective = objective
-            self.best_changes = sum(self.boolean_value(lit) for lit in self.built.changes)
-            self.best_seconds = elapsed
-            if self.first_seconds is None:
-                self.first_seconds = elapsed
-        self.report(elapsed, round(self.best_objective_bound))
-        if self.cancel is not None and self.cancel.is_set():
-            self.stop_search()
-        if self.proven is not None and objective <= self.proven:
-            self.stop_search()  # proven optimal by the LP or the decomposition bound
-
-    def _improved(self, elapsed: float, objective: int, method: str) -> None:
-        self.best_method = method
-        self.improvements.append((round(elapsed, 3), objective, method))
-
-    def offer(self, values: Values, objective: int, method: str) -> None:
-        """A roster found outside the CP-SAT search (warm start, primal heuristics),
-        its exact objective or an upper end of it; kept when it is better."""
-        elapsed = time.monotonic() - self.started
-        with self.lock:
-            if self.best_objective is not None and objective >= self.best_objective:
-                return
-            self._improved(elapsed, objective, method)
-            self.best, self.best_objective, self.best_seconds = values, objective, elapsed
-            if self.first_seconds is None:
-                self.first_seconds = elapsed
-        self.report(elapsed)
-
-    def should_stop(self, objective: int) -> bool:
-        """Cancelled, or `objective` meets the proven bound."""
-        return (self.cancel is not None and self.cancel.is_set()) or (
-            self.proven is not None and objective <= self.proven)
-
-    @property
-    def proven(self) -> int | None:
-        """The best bound proven before the search (LP, decomposition)."""
-        found = [b for b in (self.lp_bound, self.dw_bound) if b is not None]
-        return max(found) if found else None
-
-    def report(self, elapsed: float, bound: int | None = None) -> None:
-        with self.lock:
-            if bound is not None:
-                self.cp_bound = max(self.cp_bound, bound)
-            best = max(self.cp_bound, self.proven or 0)
-            penalty = self.best_objective
-            changes = None
-            if self.built.keep is not None:  # show the penalty alone, not the change cost
-                changes = self.best_changes
-                cost = self.built.change_cost(changes)
-                best = max(0, best - cost) if penalty is not None else 0
-                penalty = penalty - cost if penalty is not None else None
-            progress = SolveProgress(elapsed, penalty, best, changes, self.stage,
-                                     self.best_method)
-            self.history.append(progress)
-        if self.on_progress is not None:
-            self.on_progress(progress)
 
 
 def roster_from(built: BuiltModel, values: dict[tuple[int, int, str], int]) -> Roster:
@@ -308,7 +145,7 @@ def solve(
     """
     run = _build(ws, options or SolveOptions(), keep, cancel)
     incumbent = _warm_start(run)
-    recorder = _Recorder(run.built, time.monotonic(), on_progress, cancel)
+    recorder = Recorder(run.built, time.monotonic(), on_progress, cancel)
     if incumbent is not None and keep is None:
         recorder.offer(incumbent.values, incumbent.objective, WARM_START)
     if run.options.decompose and keep is None and incumbent is None:
@@ -377,7 +214,7 @@ def _warm_start(run: _Run) -> Incumbent | None:
     return incumbent
 
 
-def _first_roster(run: _Run, recorder: _Recorder) -> None:
+def _first_roster(run: _Run, recorder: Recorder) -> None:
     """Step 3, with no roster to start from: a roster within seconds, however long the
     bounds take (the LP of a 100-person unit may use its whole share), kept as the
     best so far; neither a hint for the search nor a start for RINS (see
@@ -391,7 +228,7 @@ def _first_roster(run: _Run, recorder: _Recorder) -> None:
     run.phases["first"] = time.monotonic() - t
 
 
-def _lp_bound(run: _Run, recorder: _Recorder) -> None:
+def _lp_bound(run: _Run, recorder: Recorder) -> None:
     """Step 4: the LP relaxation's bound, within its share, if it can be built in it.
 
     Before the search, not beside it: a GLOP thread next to the CP-SAT workers cost
@@ -411,7 +248,7 @@ def _lp_bound(run: _Run, recorder: _Recorder) -> None:
     recorder.report(time.monotonic() - recorder.started)
 
 
-def _decompose_and_improve(run: _Run, recorder: _Recorder, incumbent: Incumbent | None
+def _decompose_and_improve(run: _Run, recorder: Recorder, incumbent: Incumbent | None
                            ) -> tuple[Decomposition, cp_model.Constraint | None]:
     """Step 5: the column-generation bound, the primal heuristics from it, the search's
     hint, and the proven bound as the objective's floor (returned, to be lifted after
@@ -447,7 +284,7 @@ def _decompose_and_improve(run: _Run, recorder: _Recorder, incumbent: Incumbent 
     return decomposition, floor
 
 
-def _parameters(run: _Run, recorder: _Recorder) -> cp_model.CpSolver:
+def _parameters(run: _Run, recorder: Recorder) -> cp_model.CpSolver:
     """Step 6: CP-SAT's parameters for the search: what is left of the time (never
     less than MIN_SEARCH), workers, seed."""
     options = run.options
@@ -468,7 +305,7 @@ def _parameters(run: _Run, recorder: _Recorder) -> cp_model.CpSolver:
     return solver
 
 
-def _search(run: _Run, solver: cp_model.CpSolver, recorder: _Recorder,
+def _search(run: _Run, solver: cp_model.CpSolver, recorder: Recorder,
             floor: cp_model.Constraint | None
             ) -> tuple[cp_model.CpSolverStatus, bool]:
     """Step 7: the CP-SAT search (skipped when a roster already meets the proven
@@ -478,7 +315,7 @@ def _search(run: _Run, solver: cp_model.CpSolver, recorder: _Recorder,
                     and recorder.should_stop(recorder.best_objective))
     code = cp_model.FEASIBLE
     if searched:
-        stop_watch = _watch_cancel(solver, run.cancel, recorder)
+        stop_watch = watch_cancel(solver, run.cancel, recorder)
         try:
             code = solver.solve(run.built.model, recorder)
         finally:
@@ -499,7 +336,7 @@ STATUS: dict[cp_model.CpSolverStatus, SolveStatus] = {
 }
 
 
-def _outcome(run: _Run, recorder: _Recorder, code: cp_model.CpSolverStatus, searched: bool,
+def _outcome(run: _Run, recorder: Recorder, code: cp_model.CpSolverStatus, searched: bool,
              cp_bound: int, decomposition: Decomposition | None) -> SolveOutcome:
     """The outcome of the search, before polish: status, times, each method's bound."""
     seconds = time.monotonic() - recorder.started
@@ -518,7 +355,7 @@ def _outcome(run: _Run, recorder: _Recorder, code: cp_model.CpSolverStatus, sear
     return outcome
 
 
-def _polish_and_referee(run: _Run, recorder: _Recorder, outcome: SolveOutcome,
+def _polish_and_referee(run: _Run, recorder: Recorder, outcome: SolveOutcome,
                         cp_bound: int) -> None:
     """Steps 8 and 9: the best roster's exact objective (`polish`), every bound checked
     against it, and the checker's verdict (`referee`), into `outcome`."""
@@ -550,7 +387,7 @@ def _polish_and_referee(run: _Run, recorder: _Recorder, outcome: SolveOutcome,
     run.phases["referee"] = time.monotonic() - t
 
 
-def _decompose(ws: Workspace, built: BuiltModel, options: SolveOptions, recorder: _Recorder,
+def _decompose(ws: Workspace, built: BuiltModel, options: SolveOptions, recorder: Recorder,
                budget: float, cancel: threading.Event | None) -> Decomposition:
     """Column generation for at most its share of the `budget` seconds left, its bound
     shown as it rises."""
@@ -564,8 +401,8 @@ def _decompose(ws: Workspace, built: BuiltModel, options: SolveOptions, recorder
 
     try:
         share = max(0.0, options.decompose_share * budget)
-        # halfway through its share, column generation still far from converging gives
-        # the rest of its time (and the heuristics' share) back to the search
+        # at its checkpoint, column generation still far from converging gives the rest
+        # of its time (and the heuristics' share) back to the search
         give_up = Checkpoint(started + STALL_AT * share, recorder.lp_bound,
                              recorder.best_objective if recorder.best is not None else None)
         return decompose(ws, built.cells, deadline=started + share,
@@ -614,25 +451,3 @@ def referee(ws: Workspace, roster: Roster, objective: int | None,
             f"the solver's objective {objective} differs from the checker's penalty "
             f"{result.penalty} for the same roster")
     return result
-
-
-def _watch_cancel(solver: cp_model.CpSolver, cancel: threading.Event | None,
-                  recorder: _Recorder) -> threading.Event | None:
-    """Stop the search as soon as `cancel` is set and there is a roster to keep, even
-    between solutions. Cancelled before the first roster (say, while the bound was
-    being proved), the search goes on to its first roster and stops there (the
-    recorder does that), within the time limit."""
-    if cancel is None:
-        return None
-    done = threading.Event()
-
-    def watch() -> None:
-        while not done.is_set():
-            if cancel.wait(CANCEL_POLL):
-                if recorder.best is not None:
-                    solver.stop_search()
-                    return
-                done.wait(CANCEL_POLL)
-
-    threading.Thread(target=watch, daemon=True, name="rostertui-cancel").start()
-    return done

@@ -2,7 +2,7 @@
 
 from __future__ import annotations
 
-from rostertui.core.solver.run import SolveOutcome
+from rostertui.core.solver.outcome import SolveOutcome
 
 BOUND_NAMES = {"cp-sat": "CP-SAT search", "lp": "LP relaxation",
                "decomposition": "column generation"}

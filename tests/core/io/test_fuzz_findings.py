@@ -87,7 +87,8 @@ def test_hour_values_are_rounded_to_a_hundredth_at_load(tmp_path: Path) -> None:
 def test_the_solver_takes_hour_values_that_needed_a_huge_scale(good_ws: Path) -> None:
     """Failed before: ValueError 'hour values need a finer scale' from solver/scaled_hours.py."""
     from rostertui.core.check.run import check_roster
-    from rostertui.core.solver.run import SolveOptions, solve
+    from rostertui.core.solver.outcome import SolveOptions
+    from rostertui.core.solver.run import solve
 
     _edit(good_ws / "history.toml", "t01 = 151.5", "t01 = 1e-300")
     _edit(good_ws / "unit.toml", "min = 16\n", "min = 16.700000000000003\n")

@@ -27,7 +27,7 @@ from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, solve
 from rostertui.core.solver.decompose import decompose, loop
 from rostertui.core.solver.decompose.pricing import PersonModel, one_person
-from rostertui.core.solver.run import RefereeError
+from rostertui.core.solver.outcome import RefereeError
 from rostertui.core.solver.summary import bound_sources
 from tests.conftest import BENCHMARKS, FIXTURES, need_shared
 from tests.strategies import SETTINGS, Spec, workspaces, write

@@ -14,7 +14,8 @@ from rostertui.core.check import check_roster
 from rostertui.core.io.load import load_workspace
 from rostertui.core.io.save import save
 from rostertui.core.solver import SolveOptions, SolveProgress, solve
-from rostertui.core.solver.run import RefereeError, referee
+from rostertui.core.solver.outcome import RefereeError
+from rostertui.core.solver.run import referee
 from tests.conftest import DEMO, FIXTURES, copy_ws
 
 
