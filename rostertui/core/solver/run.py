@@ -55,7 +55,7 @@ WARM_START = "warm start"  # the workspace's own roster
 # -- the time budget --------------------------------------------------------------------
 MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a small unit's
 #                   first roster takes well under a second
-STALL_AT = 0.5  # column generation's checkpoint, as a share of its time (loop.Checkpoint)
+STALL_AT = 0.3  # column generation's checkpoint, as a share of its time (loop.Checkpoint)
 FIRST_SHARE = 0.1  # at most this share of the time left for a first roster before the bound
 HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
 # ...and never more than this, however long the limit: the completion is propagation,

@@ -28,7 +28,7 @@ from rostertui.core.models.roster import Roster
 from rostertui.core.models.workspace import Workspace
 from rostertui.core.solver import SolveOptions, SolveProgress, solve
 from rostertui.core.solver.decompose import decompose
-from rostertui.core.solver.decompose.loop import STALL_RATIO, Checkpoint
+from rostertui.core.solver.decompose.loop import LAGRANGIAN_RATIO, STALL_RATIO, Checkpoint
 from rostertui.core.solver.decompose.pricing import one_person
 from rostertui.core.solver.fixing import evaluate, rows_of, values_of
 from rostertui.core.solver.model import build_model
@@ -276,15 +276,20 @@ def test_column_generation_far_from_converging_gives_its_time_back(
         monkeypatch: pytest.MonkeyPatch) -> None:
     """Past the checkpoint, a master value above the stall value ends column
     generation (`stalled`); the heuristics then do not run and the search gets their
-    time. The stall value is the lower of STALL_RATIO x the best lower bound known
-    (the LP relaxation's or the Lagrangian bound so far) and a roster's penalty (no
-    converged master can lie above a roster's penalty)."""
-    assert Checkpoint(0.0).limit(None) == STALL_RATIO  # no bound yet: at least 1
+    time. The stall value is the higher of STALL_RATIO x the LP relaxation's bound and
+    LAGRANGIAN_RATIO x the Lagrangian bound so far (+ 1), or a roster's penalty if lower
+    (no converged master can lie above a roster's penalty)."""
+    assert Checkpoint(0.0).limit(None) == max(STALL_RATIO, 1.0)  # no bound yet: 1.2
     assert Checkpoint(0.0, lp_bound=100).limit(None) == 100 * STALL_RATIO
-    # a Lagrangian bound above the LP's is the better reference (Curtois-Qu 9: LP 39,
-    # Lagrangian 382 halfway, master 406 at convergence)
-    assert Checkpoint(0.0, lp_bound=100).limit(Fraction(300)) == 300 * STALL_RATIO
+    # a rising Lagrangian bound keeps a master that is converging from below (Curtois-Qu
+    # 9 at 0.3 of its share: LP 39, Lagrangian 359, master 408; it converges at 406)
+    assert Checkpoint(0.0, lp_bound=39).limit(Fraction(359)) == 2 * 359 + 1
+    assert not Checkpoint(0.0, lp_bound=39).far(0.0, 408.3, Fraction(359))
+    # the clinic demo at the same point: master 758 against LP 496, Lagrangian bound 0
+    assert Checkpoint(0.0, lp_bound=496).far(0.0, 758.4, Fraction(0))
+    assert not Checkpoint(0.0, lp_bound=496).far(0.0, 590.0, Fraction(0))
     assert Checkpoint(0.0, lp_bound=300).limit(Fraction(100)) == 300 * STALL_RATIO
+    assert Checkpoint(0.0, lp_bound=100).limit(Fraction(300)) == LAGRANGIAN_RATIO * 300 + 1
     assert Checkpoint(0.0, lp_bound=100, roster=110).limit(None) == 110
     assert Checkpoint(0.0, roster=7).limit(Fraction(50)) == 7
     assert not Checkpoint(10.0, roster=7).far(9.9, 1000.0, None)  # not yet its time

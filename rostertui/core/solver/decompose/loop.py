@@ -44,17 +44,22 @@ from rostertui.core.solver.decompose.rows import CoverRow, cover_rows
 SCALE = 1000  # duals are priced as multiples of 1/SCALE penalty
 SMOOTHING = 0.5  # weight of the best bound's duals in the priced point
 PRICE_CAP = 5.0  # seconds one person's pricing may take in one iteration
-# `give_up`: a restricted master still this many times above the best lower bound
-# known (the LP relaxation's, or the Lagrangian bound of the iterations so far) halfway
-# through its time is far from converging. From the iterations of 60 s solves (18 s
-# shares, BENCHMARKS.md): halfway, the converging ones stood at 1.06-1.11 x (Curtois-Qu
-# 8 against its LP bound, 9 against its Lagrangian bound; both converge by 16 s), those
-# that do not converge within their share at 1.35-1.6 x (the clinic and depot demos,
-# 72 s and more alone) and 2.3-3.1 x (Curtois-Qu 12, 14, 15). A value of ours, chosen
-# from those runs, not from a source. (It was 2.5 x the LP bound alone: that let the
-# demos run their whole share for nothing, and stopped instance 9, whose LP bound is
-# weak, two iterations before it converged.)
+# `give_up`: at its checkpoint (run.STALL_AT, 0.3 of its time), a restricted master
+# still above both STALL_RATIO x the LP relaxation's bound (at least 1) and
+# LAGRANGIAN_RATIO x the Lagrangian bound so far (+ 1) is far from converging: near
+# convergence the master nears the LP bound from above where that is strong and the
+# Lagrangian bound rises to meet it where it is weak. From the iterations of column
+# generation alone, 2 workers, seed 0, on the 60 s solves' 17 s shares (BENCHMARKS.md):
+# 0.3 of the way in (about 5 s), Curtois-Qu 8 stood at 1.11 x its LP bound, with a
+# Lagrangian bound of 923 against a master of 1372, and 9 at 408 against a Lagrangian
+# bound of 359 (its LP bound, 39, is weak); both converge, at 11 and 8 s. The clinic and
+# depot demos stood at 1.53 and 1.61 x their LP bounds with Lagrangian bounds of 0: they
+# do not converge within their shares, and halfway the clinic stood at 1.22 x, so near
+# the old ratio that it sometimes ran its whole share and the heuristics theirs, from
+# an unconverged master, 24 s of a 60 s solve for a bound below the LP's. Values of
+# ours, chosen from those runs, not from a source.
 STALL_RATIO = 1.2
+LAGRANGIAN_RATIO = 2.0
 
 
 @dataclass(frozen=True)
@@ -67,11 +72,13 @@ class Checkpoint:
     roster: int | None = None  # the penalty of a roster already found
 
     def limit(self, lagrangian: Fraction | None) -> float:
-        """STALL_RATIO x the best lower bound known (the LP relaxation's, the
-        Lagrangian bound so far, at least 1), or a roster's penalty (a converged master
-        relaxes every roster, so it lies no higher), whichever is lower."""
-        low = max([1.0] + [float(v) for v in (self.lp_bound, lagrangian) if v is not None])
-        value = STALL_RATIO * low
+        """The higher of STALL_RATIO x the LP relaxation's bound (at least 1) and
+        LAGRANGIAN_RATIO x the Lagrangian bound so far + 1, or a roster's penalty (a
+        converged master relaxes every roster, so it lies no higher), whichever is
+        lower."""
+        lp = STALL_RATIO * max(1.0, float(self.lp_bound or 0))
+        lagrange = LAGRANGIAN_RATIO * max(0.0, float(lagrangian or 0)) + 1.0
+        value = max(lp, lagrange)
         return value if self.roster is None else min(value, float(self.roster))
 
     def far(self, now: float, master: float, lagrangian: Fraction | None) -> bool:
