@@ -56,3 +56,42 @@ def two_working_days(folder: Path, first_day: int = 10) -> tuple[str, date, date
             if row[d] != OFF and row[d + 1] != OFF:
                 return pid, ws.unit.dates[d], ws.unit.dates[d + 1]
     raise AssertionError("nobody works two days in a row")
+
+
+@pytest.fixture(scope="session")
+def dask_cluster():
+    """A local Dask cluster of 2 single-threaded worker processes for the solve-many
+    tests, its scheduler configured as solve-many's own (one worker death per task);
+    the tests skip, with the reason, when the extra is not installed."""
+    pytest.importorskip("distributed", reason="Dask distributed (the extra rostertui[many]) "
+                        "is not installed")
+    import dask
+    from distributed import LocalCluster
+
+    from rostertui.core.many.cluster import SCHEDULER_CONFIG
+
+    with dask.config.set(SCHEDULER_CONFIG):
+        cluster = LocalCluster(n_workers=2, threads_per_worker=1, processes=True,
+                               dashboard_address=":0")
+    yield cluster
+    cluster.close()
+
+
+def units_folder(tmp_path: Path, good: int = 3, broken: bool = True) -> Path:
+    """A folder of small workspaces: `good` copies of tests/fixtures/good (4 people x 7
+    days, solved to optimality in about a second) and one whose unit.toml says
+    `days = -1`."""
+    root = tmp_path / "units"
+    root.mkdir()
+    for i in range(good):
+        copy_ws(FIXTURES / "good", root, f"unit-{i + 1}")
+    if broken:
+        ws = copy_ws(FIXTURES / "good", root, "broken")
+        unit = ws / "unit.toml"
+        unit.write_text(unit.read_text().replace("days = 7", "days = -1"))
+    return root
+
+
+def temporaries(folder: Path) -> list[Path]:
+    """Temporary files (`.name.pid-random.tmp`) left anywhere under `folder`."""
+    return [p for p in folder.rglob(".*.tmp")]

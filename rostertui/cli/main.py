@@ -20,6 +20,7 @@ from rostertui.cli import (
     publish,
     repair,
     solve,
+    solve_many,
     stats,
     swap,
 )
@@ -43,8 +44,8 @@ def build_parser() -> argparse.ArgumentParser:
     )
     parser.add_argument("--version", action="version", version=f"rostertui {__version__}")
     verbs = parser.add_subparsers(dest="verb", metavar="VERB")
-    for module in (open_verb, check, stats, solve, explain, repair, publish, diff, swap, absent,
-                   export, new, next_verb, add_requests, demo):
+    for module in (open_verb, check, stats, solve, solve_many, explain, repair, publish, diff,
+                   swap, absent, export, new, next_verb, add_requests, demo):
         module.register(verbs)
     return parser
 
