@@ -37,6 +37,10 @@ class SolveOptions:
     floor: bool = True  # the proven bound as the objective's lower end in the search
     primal_share: float = 0.5
     pool_share: float = 0.3
+    # without a converged master (no heuristics from it), large neighbourhood search
+    # (primal/lns.py) from the best roster so far, for this share of the time left,
+    # before the CP-SAT search
+    lns_share: float = 0.7
     log: bool = False
     # time.monotonic() by which the whole solve should be over (build, hint, LP, search,
     # polish, referee); None: time_limit from the call. A caller passes its own start +

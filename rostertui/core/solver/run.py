@@ -45,9 +45,9 @@ from rostertui.core.solver.outcome import (
     SolveOptions,
     SolveOutcome,
 )
-from rostertui.core.solver.primal import Incumbent, improve
+from rostertui.core.solver.primal import Incumbent, improve, lns
 from rostertui.core.solver.primal.first import first_roster
-from rostertui.core.solver.primal.portfolio import FIRST
+from rostertui.core.solver.primal.portfolio import EVALUATE_CAP, FIRST, LNS
 from rostertui.core.solver.recorder import Recorder, watch_cancel
 
 WARM_START = "warm start"  # the workspace's own roster
@@ -57,6 +57,7 @@ MIN_SEARCH = 1.0  # CP-SAT's least time (or the whole limit, if shorter): a smal
 #                   first roster takes well under a second
 STALL_AT = 0.3  # column generation's checkpoint, as a share of its time (loop.Checkpoint)
 FIRST_SHARE = 0.1  # at most this share of the time left for a first roster before the bound
+LNS_FIRST = 0.3  # ...and of neighbourhood search's, when there was none by then
 HINT_SHARE = 0.2  # the warm start's completion: at most this share of the time left...
 # ...and never more than this, however long the limit: the completion is propagation,
 # 2.9 s on 2014 people x 28 days (BENCHMARKS.md); one not done in three times that
@@ -260,7 +261,8 @@ def _decompose_and_improve(run: _Run, recorder: Recorder, incumbent: Incumbent |
     # (Curtois-Qu 5-9: 1146/1954/1074/1500/462 against 1240/2140/1174/1729/562
     # without, BENCHMARKS.md); an unconverged master's are not (the clinic demo:
     # 768 against 652 at 60 s)
-    if options.primal and decomposition.columns and not decomposition.stalled:
+    improved = options.primal and bool(decomposition.columns) and not decomposition.stalled
+    if improved:
         t = time.monotonic()
         recorder.stage = "improve"
         incumbent = improve(
@@ -271,9 +273,11 @@ def _decompose_and_improve(run: _Run, recorder: Recorder, incumbent: Incumbent |
             cancel=run.cancel)
         recorder.stage = "search"
         run.phases["improve"] = time.monotonic() - t
-    # CP-SAT's first roster is kept (the recorder holds it) but not hinted: the
-    # search hinted with it did worse on the depot demo (438, 401 against 387 at
-    # 60 s, seeds 0-1) than from scratch
+    if options.primal and options.lns_share > 0 and (not improved or incumbent is None):
+        incumbent = _neighbourhoods(run, recorder, incumbent)  # nothing from a master
+    # CP-SAT's first roster as it is is kept (the recorder holds it) but not hinted:
+    # the search hinted with it did worse on the depot demo (438, 401 against 387 at
+    # 60 s, seeds 0-1) than from scratch; neighbourhood search's roster from it is
     if incumbent is not None:
         hint_solution(built.model, incumbent.solution)
     elif decomposition.converged and not built.model.proto.solution_hint.vars:
@@ -282,6 +286,37 @@ def _decompose_and_improve(run: _Run, recorder: Recorder, incumbent: Incumbent |
     if recorder.proven is not None and options.floor:  # need not prove the proven
         floor = built.model.add(built.builder.objective() >= recorder.proven)
     return decomposition, floor
+
+
+def _neighbourhoods(run: _Run, recorder: Recorder, incumbent: Incumbent | None
+                    ) -> Incumbent | None:
+    """Large neighbourhood search (primal/lns.py) from the best roster so far, for its
+    share of the time left. Returns the best roster it ends with (or `incumbent`)."""
+    built = run.built
+    budget = max(0.0, run.options.lns_share * run.left())
+    t = time.monotonic()
+    if recorder.best is None:  # the first roster's share was too short: more of it here
+        first = first_roster(built, t + LNS_FIRST * budget, run.workers, run.options.seed,
+                             run.cancel)
+        if first is None:
+            return incumbent
+        recorder.offer(first.values, first.objective, FIRST)
+    if incumbent is None or (recorder.best_objective is not None
+                             and recorder.best_objective < incumbent.objective):
+        assert recorder.best is not None
+        exact = evaluate(built, recorder.best, EVALUATE_CAP)
+        if exact is None:
+            return incumbent
+        incumbent = Incumbent(recorder.best, exact[0], exact[1])
+    recorder.stage = "improve"
+    try:
+        return lns.search(built, incumbent, lns.blind(built), t + budget, run.workers,
+                          run.options.seed,
+                          lambda values, objective: recorder.offer(values, objective, LNS),
+                          recorder.should_stop, run.cancel, lns.blind_round(built))
+    finally:
+        recorder.stage = "search"
+        run.phases["lns"] = time.monotonic() - t
 
 
 def _parameters(run: _Run, recorder: Recorder) -> cp_model.CpSolver:
@@ -342,7 +377,7 @@ def _outcome(run: _Run, recorder: Recorder, code: cp_model.CpSolverStatus, searc
     seconds = time.monotonic() - recorder.started
     phases = run.phases
     phases["search"] = seconds - sum(phases.get(k, 0.0)
-                                     for k in ("first", "lp", "decompose", "improve"))
+                                     for k in ("first", "lp", "decompose", "improve", "lns"))
     outcome = SolveOutcome(STATUS.get(code, "unknown"), None, None, None, seconds,
                            run.options.seed, build_seconds=phases["build"],
                            history=recorder.history, phases=phases,

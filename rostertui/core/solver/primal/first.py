@@ -32,6 +32,11 @@ def first_roster(built: BuiltModel, deadline: float, workers: int, seed: int,
     solver.parameters.num_workers = max(1, workers)
     solver.parameters.random_seed = seed
     solver.parameters.stop_after_first_solution = True
+    # One worker alone searches depth-first with the LP, slow to a first solution;
+    # interleaved, it also runs the first-solution heuristics (feasibility jump) that
+    # two or more workers run beside it. On the clinic demo (seed 0): 0.47 s against
+    # 6.8 s; Curtois-Qu 12: 2.0 s against none in 20 s (one run each).
+    solver.parameters.interleave_search = workers <= 1
     with stop_on_cancel(solver, cancel):
         status = solver.solve(model)
     if status not in (cp_model.OPTIMAL, cp_model.FEASIBLE):

@@ -14,7 +14,7 @@ from rostertui.core.solver.primal.pool import Rows, integer_master
 from rostertui.core.solver.primal.rins import Incumbent
 
 # method names, as the progress line and the summaries show them (solver/summary.py)
-POOL, RINS, FIRST = "integer master", "RINS", "first roster"
+POOL, RINS, FIRST, LNS = "integer master", "RINS", "first roster", "neighbourhood search"
 EVALUATE_CAP = 30.0  # seconds for the exact objective of one roster (polish takes ~1 s
 #                      at 2014 people)
 
