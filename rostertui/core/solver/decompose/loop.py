@@ -115,6 +115,9 @@ class Decomposition:
     cover: list[CoverRow] = field(default_factory=list)  # the master's cover rows
     balances: list[BalanceRow] = field(default_factory=list)  # and its balance rows
     history: list[DecompositionProgress] = field(default_factory=list)
+    # the last restricted master's duals (cover rows as in `cover`): at convergence,
+    # the marginal value of one more person on each cover row (core/staffing/pressure.py)
+    duals: Duals | None = None
 
     def heaviest(self) -> dict[int, tuple[str, ...]]:
         """Per person (index), the row the master LP weighs most (a start for the search)."""
@@ -333,6 +336,7 @@ def decompose(
         if duals is None:
             break
         out.iterations += 1
+        out.duals = duals
         out.master_value = duals.value
         out.artificial = duals.artificial
         exact = Point.of(duals)
